@@ -1,0 +1,66 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { FormMessage } from '@/components/ui/field';
+import { ROLE_LABELS, type Role } from '@/lib/roles';
+import { requirePageUser } from '@/lib/server/guard';
+
+export const metadata: Metadata = { title: 'Home' };
+
+interface Tile {
+  href: string;
+  title: string;
+  text: string;
+  later?: boolean;
+}
+
+// What each role does first. Tiles marked `later` describe features that are not built yet.
+const TILES: Record<Role, Tile[]> = {
+  apprentice: [
+    { href: '/calls', title: 'My service calls', text: 'Open the calls assigned to you and follow the guided diagnosis at the unit. A technician signs off your finding.' },
+    { href: '/practice', title: 'Practice', text: 'Practice scenarios your trainer assigns will run here against a simulated furnace.', later: true },
+  ],
+  technician: [
+    { href: '/calls', title: 'My service calls', text: 'Start a call, run the guided diagnosis, record the repair and its verification, and close it.' },
+    { href: '/units', title: 'Units', text: 'Every furnace your company services, with its readings over the years.' },
+  ],
+  lead: [
+    { href: '/calls', title: 'All service calls', text: 'Every call of the company, with where each diagnosis went.' },
+    { href: '/trees', title: 'Fault trees', text: 'Edit, review and publish the company’s fault trees. Authoring comes in a later release; the published default tree is in use.', later: true },
+  ],
+  trainer: [
+    { href: '/practice', title: 'Practice scenarios', text: 'Assign bench faults to apprentices and review their attempts and scores.', later: true },
+  ],
+  admin: [
+    { href: '/admin/users', title: 'Users', text: 'Add people, change roles, deactivate accounts and end their sessions.' },
+    { href: '/admin/company', title: 'Company settings', text: 'Company name, office e-mail and the display units your technicians see.' },
+    { href: '/calls', title: 'All service calls', text: 'Every call of the company.' },
+  ],
+};
+
+export default async function HomePage({ searchParams }: { searchParams: Promise<{ refused?: string }> }) {
+  const user = await requirePageUser();
+  const { refused } = await searchParams;
+  return (
+    <div className="space-y-6">
+      {refused && <FormMessage message="That page is not open to your role, so you were brought home." />}
+      <div>
+        <p className="text-sm font-semibold uppercase tracking-wide text-copper-strong">{ROLE_LABELS[user.role]}</p>
+        <h1 className="page-title">Good to see you, {user.name.split(' ')[0]}</h1>
+        <p className="text-muted">{user.companyName}</p>
+      </div>
+      <ul className="grid gap-4 sm:grid-cols-2">
+        {TILES[user.role].map((tile) => (
+          <li key={tile.href + tile.title}>
+            <Link href={tile.href} className="card flex h-full min-h-[8rem] flex-col gap-2 hover:border-copper">
+              <span className="flex items-center justify-between gap-2 text-lg font-bold">
+                {tile.title}
+                {tile.later && <span className="rounded-full border border-line px-2 py-0.5 text-xs font-semibold text-muted">coming later</span>}
+              </span>
+              <span className="text-muted">{tile.text}</span>
+            </Link>
+          </li>
+        ))}
+      </ul>
+    </div>
+  );
+}

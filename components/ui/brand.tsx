@@ -1,0 +1,13 @@
+/** The product mark: a copper gauge needle over a graphite arc. */
+export function Brand({ compact = false }: { compact?: boolean }) {
+  return (
+    <span className="inline-flex items-center gap-2 font-bold tracking-tight">
+      <svg aria-hidden width="28" height="28" viewBox="0 0 32 32">
+        <path d="M4 22a12 12 0 0 1 24 0" fill="none" stroke="currentColor" strokeWidth="3" strokeLinecap="round" opacity="0.45" />
+        <path d="M16 22 L24 10" stroke="rgb(var(--copper))" strokeWidth="3.5" strokeLinecap="round" />
+        <circle cx="16" cy="22" r="3.2" fill="rgb(var(--copper))" />
+      </svg>
+      {!compact && <span className="text-lg">Proving Ground</span>}
+    </span>
+  );
+}

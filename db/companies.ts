@@ -1,0 +1,45 @@
+import 'server-only';
+import { db } from '@/db/knex';
+import { notFound } from '@/lib/errors';
+
+export interface Company {
+  id: string;
+  name: string;
+  officeEmail: string;
+  displayUnits: 'us' | 'metric';
+}
+
+interface CompanyRow {
+  id: string;
+  name: string;
+  office_email: string;
+  display_units: 'us' | 'metric';
+}
+
+const toCompany = (row: CompanyRow): Company => ({
+  id: row.id,
+  name: row.name,
+  officeEmail: row.office_email,
+  displayUnits: row.display_units,
+});
+
+export async function getCompany({ id }: { id: string }): Promise<Company> {
+  const row: CompanyRow | undefined = await db('companies').where({ id }).first();
+  if (!row) throw notFound('That company');
+  return toCompany(row);
+}
+
+export async function updateCompany({
+  id,
+  patch,
+}: {
+  id: string;
+  patch: { name: string; officeEmail: string; displayUnits: 'us' | 'metric' };
+}): Promise<Company> {
+  const [row] = await db('companies')
+    .where({ id })
+    .update({ name: patch.name, office_email: patch.officeEmail, display_units: patch.displayUnits, updated_at: db.fn.now() })
+    .returning('*');
+  if (!row) throw notFound('That company');
+  return toCompany(row);
+}

@@ -1,0 +1,37 @@
+import 'server-only';
+import { getIronSession, type SessionOptions } from 'iron-session';
+import { cookies } from 'next/headers';
+
+export interface SessionData {
+  userId?: string;
+  /** Must equal users.session_version, or the session was revoked. */
+  version?: number;
+}
+
+function secret(): string {
+  const value = process.env.SESSION_SECRET;
+  if (!value || value.length < 32) {
+    // scripts/start.mjs and scripts/test.mjs always provide one; a deployment must set its own.
+    throw new Error('SESSION_SECRET must be set to at least 32 characters.');
+  }
+  return value;
+}
+
+function secureCookie(): boolean {
+  if (process.env.COOKIE_SECURE) return process.env.COOKIE_SECURE === 'true';
+  // Served over plain http on loopback by `npm start`; anything else in production is https.
+  return process.env.NODE_ENV === 'production' && !(process.env.APP_URL ?? '').startsWith('http://');
+}
+
+export function sessionOptions(): SessionOptions {
+  return {
+    password: secret(),
+    cookieName: 'pg_session',
+    ttl: 60 * 60 * 12,
+    cookieOptions: { httpOnly: true, sameSite: 'lax', secure: secureCookie(), path: '/' },
+  };
+}
+
+export async function getSession() {
+  return getIronSession<SessionData>(await cookies(), sessionOptions());
+}
