@@ -1,0 +1,46 @@
+import { findCycles, outgoingEdges, reachableFrom, successors } from '@/lib/trees/graph';
+import type { Step, TreeGraph } from '@/lib/trees/schema';
+
+const finding = (id: string): Step => ({
+  id,
+  kind: 'finding',
+  title: id,
+  instruction: '',
+  cautions: [],
+  energy: 'any',
+  explanation: 'e',
+  remedy: 'r',
+  parts: [],
+  verification: ['v'],
+  tags: [],
+  expects: [],
+});
+const action = (id: string, outcome: string): Step => ({ id, kind: 'action', title: id, instruction: '', cautions: [], energy: 'any', checklist: [], outcome });
+const inspect = (id: string, ...outcomes: string[]): Step => ({
+  id,
+  kind: 'inspect',
+  title: id,
+  instruction: '',
+  cautions: [],
+  energy: 'any',
+  choices: outcomes.map((o, i) => ({ value: `c${i}`, label: `c${i}`, outcome: o })),
+});
+
+describe('graph helpers', () => {
+  it('lists edges with how each is chosen', () => {
+    expect(outgoingEdges(inspect('a', 'x', 'y'))).toEqual([
+      { from: 'a', to: 'x', via: { kind: 'choice', value: 'c0' } },
+      { from: 'a', to: 'y', via: { kind: 'choice', value: 'c1' } },
+    ]);
+    expect(outgoingEdges(action('b', 'x'))).toEqual([{ from: 'b', to: 'x', via: { kind: 'confirm' } }]);
+    expect(outgoingEdges(finding('f'))).toEqual([]);
+    expect(successors(inspect('a', 'x', 'x'))).toEqual(['x']);
+  });
+
+  it('finds the reachable steps and the loops', () => {
+    const g: TreeGraph = { start: 'a', steps: [inspect('a', 'b', 'f'), action('b', 'c'), action('c', 'b'), finding('f'), finding('g')] };
+    expect(reachableFrom(g, 'a')).toEqual(new Set(['a', 'b', 'c', 'f']));
+    expect(findCycles(g)).toEqual([['b', 'c', 'b']]);
+    expect(findCycles({ steps: [inspect('a', 'f', 'g'), finding('f'), finding('g')] })).toEqual([]);
+  });
+});
