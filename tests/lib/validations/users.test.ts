@@ -1,0 +1,88 @@
+import { z } from 'zod';
+import { companySettingsSchema, createUserSchema, updateUserSchema, uuidSchema } from '@/lib/validations/users';
+
+function refusal(schema: z.ZodType, input: unknown) {
+  const result = schema.safeParse(input);
+  if (result.success) throw new Error(`expected a refusal for ${JSON.stringify(input)}`);
+  return z.flattenError(result.error) as { formErrors: string[]; fieldErrors: Record<string, string[] | undefined> };
+}
+
+const good = { email: 'New.Person@Example.TEST', name: '  Ada Quist ', role: 'technician', password: 'twelve-chars' };
+
+describe('createUserSchema', () => {
+  it('accepts a complete user, normalising e-mail and name', () => {
+    expect(createUserSchema.parse(good)).toEqual({ email: 'new.person@example.test', name: 'Ada Quist', role: 'technician', password: 'twelve-chars' });
+  });
+
+  it('refuses an unknown role and names the allowed ones', () => {
+    expect(refusal(createUserSchema, { ...good, role: 'owner' }).fieldErrors.role).toEqual([
+      'Role must be one of: apprentice, technician, lead, trainer, admin.',
+    ]);
+  });
+
+  it('refuses a short password (11 characters) and accepts 12', () => {
+    expect(refusal(createUserSchema, { ...good, password: 'x'.repeat(11) }).fieldErrors.password).toEqual(['Use at least 12 characters.']);
+    expect(createUserSchema.safeParse({ ...good, password: 'x'.repeat(12) }).success).toBe(true);
+  });
+
+  it('refuses a blank name, a long name and a bad e-mail, each with its message', () => {
+    expect(refusal(createUserSchema, { ...good, name: '   ' }).fieldErrors.name).toEqual(['Enter a name.']);
+    expect(refusal(createUserSchema, { ...good, name: 'n'.repeat(121) }).fieldErrors.name).toEqual(['Keep the name under 120 characters.']);
+    expect(refusal(createUserSchema, { ...good, email: 'not-an-address' }).fieldErrors.email).toEqual(['Enter a valid e-mail address.']);
+  });
+
+  it('reports every missing field at once', () => {
+    const { fieldErrors } = refusal(createUserSchema, {});
+    expect(Object.keys(fieldErrors).sort()).toEqual(['email', 'name', 'password', 'role']);
+    expect(fieldErrors.password).toEqual(['Enter a starting password.']);
+  });
+});
+
+describe('updateUserSchema', () => {
+  it('accepts each single change', () => {
+    expect(updateUserSchema.parse({ role: 'lead' })).toEqual({ role: 'lead' });
+    expect(updateUserSchema.parse({ active: false })).toEqual({ active: false });
+    expect(updateUserSchema.parse({ revokeSessions: true })).toEqual({ revokeSessions: true });
+    expect(updateUserSchema.parse({ name: ' Bo ' })).toEqual({ name: 'Bo' });
+  });
+
+  it('refuses an empty change with a form message', () => {
+    expect(refusal(updateUserSchema, {}).formErrors).toEqual(['Nothing to change: send name, role, active or revokeSessions.']);
+  });
+
+  it('refuses fields it does not know, so an e-mail or company cannot be changed through it', () => {
+    const flat = refusal(updateUserSchema, { role: 'lead', companyId: '00000000-0000-4000-8000-000000000000' });
+    expect(flat.formErrors.join(' ')).toMatch(/companyId/);
+    expect(updateUserSchema.safeParse({ email: 'x@y.test' }).success).toBe(false);
+  });
+
+  it('refuses a bad role, a non-boolean active and revokeSessions: false', () => {
+    expect(refusal(updateUserSchema, { role: 'boss' }).fieldErrors.role).toEqual(['Role must be one of: apprentice, technician, lead, trainer, admin.']);
+    expect(refusal(updateUserSchema, { active: 'no' }).fieldErrors.active).toEqual(['active is true or false.']);
+    expect(refusal(updateUserSchema, { revokeSessions: false }).fieldErrors.revokeSessions).toEqual(['revokeSessions can only be true.']);
+  });
+});
+
+describe('companySettingsSchema', () => {
+  it('accepts settings and normalises the office e-mail', () => {
+    expect(companySettingsSchema.parse({ name: ' Acme ', officeEmail: 'Office@Acme.TEST', displayUnits: 'metric' })).toEqual({
+      name: 'Acme',
+      officeEmail: 'office@acme.test',
+      displayUnits: 'metric',
+    });
+  });
+
+  it('refuses a bad e-mail, blank name and unknown units with messages', () => {
+    const { fieldErrors } = refusal(companySettingsSchema, { name: '', officeEmail: 'nope', displayUnits: 'imperial' });
+    expect(fieldErrors.name).toEqual(['Enter the company name.']);
+    expect(fieldErrors.officeEmail).toEqual(['Enter a valid e-mail address.']);
+    expect(fieldErrors.displayUnits).toEqual(['Choose US customary or metric.']);
+  });
+});
+
+describe('uuidSchema', () => {
+  it('accepts a UUID and refuses anything else', () => {
+    expect(uuidSchema.safeParse('3f1c2a9e-7b4d-4c1e-9a2b-0d5e6f7a8b9c').success).toBe(true);
+    expect(refusal(uuidSchema, '42').formErrors).toEqual(['Not a valid id.']);
+  });
+});
