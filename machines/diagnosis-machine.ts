@@ -5,7 +5,7 @@
 //
 // Findings are final states of `walk`, not of the machine, so the actor stays active at a finding
 // and `answer.undo` still works there.
-import { assign, createActor, setup, type Actor, type SnapshotFrom } from 'xstate';
+import { assign, createActor, setup, type Actor, type SnapshotFrom, type StateValue } from 'xstate';
 import { findBand } from '@/lib/bands';
 import { LOCK_OUT_PREFIX, RE_ENERGIZE_PREFIX, stepMap } from '@/lib/trees/graph';
 import type { ActionStep, Caution, EnergyState, Step, TreeGraph, TreeVersion } from '@/lib/trees/schema';
@@ -343,13 +343,13 @@ export function getStep(source: DiagnosisMachine | TreeGraph | TreeVersion, stat
 }
 
 /** The state id (= step id) inside `walk` of a snapshot's value. */
-export function stateIdOf(stateValue: DiagnosisSnapshot['value'] | string): string | undefined {
+export function stateIdOf(stateValue: StateValue): string | undefined {
   if (typeof stateValue === 'string') return stateValue === 'walk' ? undefined : stateValue;
   const inner = (stateValue as { walk?: unknown }).walk;
   return typeof inner === 'string' ? inner : undefined;
 }
 
-export function stepForState(treeVersion: TreeVersion, stateValue: DiagnosisSnapshot['value'] | string): Step | undefined {
+export function stepForState(treeVersion: TreeVersion, stateValue: StateValue): Step | undefined {
   const id = stateIdOf(stateValue);
   return id === undefined ? undefined : getStep(treeVersion, id);
 }

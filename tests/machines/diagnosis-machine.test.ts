@@ -116,7 +116,7 @@ describe('diagnosis machine on the default tree', () => {
     // No procedure for a step that does not need one, nor for an unknown step.
     expect(getStep(tree, 'lock-out--valve-voltage')).toBeUndefined();
     expect(getStep(tree, 'lock-out--nothing')).toBeUndefined();
-    expect(stepForState(tree, { walk: 'line-voltage' } as DiagnosisSnapshot['value'])?.id).toBe('line-voltage');
+    expect(stepForState(tree, { walk: 'line-voltage' })?.id).toBe('line-voltage');
   });
 
   it('walks a path with the lock-out inserted and records it', () => {
