@@ -61,6 +61,7 @@ async function main() {
       TEST_PG_ADMIN_URL: `postgres://postgres@127.0.0.1:${pgPort}/postgres`,
       SESSION_SECRET: 'test-secret-test-secret-test-secret-test-secret',
       SEED_DEMO: 'true',
+      NEXT_DIST_DIR: process.env.NEXT_DIST_DIR ?? '.next-test',
       CHROMIUM_PATH: chromium ?? '',
     };
     log('Migrating and seeding the throwaway database…');
