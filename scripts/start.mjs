@@ -44,7 +44,7 @@ function newestSource() {
 }
 
 function buildIfNeeded() {
-  const buildId = path.join(root, '.next', 'BUILD_ID');
+  const buildId = path.join(root, process.env.NEXT_DIST_DIR ?? '.next', 'BUILD_ID');
   if (existsSync(buildId) && statSync(buildId).mtimeMs > newestSource()) {
     log('The build is up to date.');
     return;
