@@ -145,19 +145,12 @@ export async function answerDiagnosis({ viewer, id, input }: { viewer: Viewer; i
       if (earlier.stepId !== input.stepId) throw new AppError('conflict', 'That clientId was already used for another step.');
       return earlier.response as AnswerResult;
     }
-    if (call.status === 'closed' || call.status === 'referred') throw new AppError('conflict', 'This call is closed; its diagnoses cannot change.');
-    if (diagnosis.status !== 'in_progress') throw new AppError('conflict', 'This diagnosis has ended. Undo the last answer to change it.');
-
-    const answers = await listPathAnswers({ companyId: viewer.companyId, diagnosisId: id }, trx);
-    const snapshot = replayOrFail(version, answers);
-    const step = currentStep(snapshot);
-    if (!getStep(version, input.stepId)) {
+    // The answer is checked against the step it names first, so bad input is a 400 whatever the
+    // diagnosis's state; only a well-formed answer to a step that is not current is a 409.
+    const step = getStep(version, input.stepId);
+    if (!step) {
       throw new AppError('bad_request', `"${input.stepId}" is not a step of this tree version.`, { fieldErrors: { stepId: ['Unknown step.'] } });
     }
-    if (input.stepId !== step.id) {
-      throw new AppError('conflict', `This diagnosis is at "${step.title}", not at "${input.stepId}". Reload to see where it stands.`);
-    }
-
     const stored: Parameters<typeof insertAnswer>[0]['answer'] = { clientId: input.clientId, stepId: step.id, stepKind: step.kind };
     const machineAnswer: DiagnosisAnswer = { stepId: step.id };
     let verdict: AnswerResult['verdict'];
@@ -189,7 +182,15 @@ export async function answerDiagnosis({ viewer, id, input }: { viewer: Viewer; i
       stored.confirmed = true;
       machineAnswer.confirmed = true;
     } else {
-      throw new AppError('conflict', 'This diagnosis has reached its finding.');
+      throw new AppError('conflict', 'A finding is where a diagnosis ends; it takes no answer.');
+    }
+
+    if (call.status === 'closed' || call.status === 'referred') throw new AppError('conflict', 'This call is closed; its diagnoses cannot change.');
+    if (diagnosis.status !== 'in_progress') throw new AppError('conflict', 'This diagnosis has ended. Undo the last answer to change it.');
+    const answers = await listPathAnswers({ companyId: viewer.companyId, diagnosisId: id }, trx);
+    const current = currentStep(replayOrFail(version, answers));
+    if (step.id !== current.id) {
+      throw new AppError('conflict', `This diagnosis is at "${current.title}", not at "${step.title}". Reload to see where it stands.`);
     }
 
     const replay = replayAnswers(version, [...answers.map(asMachineAnswer), machineAnswer]);
