@@ -373,7 +373,19 @@ export const DEFAULT_TREE: DefaultTree = {
           'Manometer connected to the inlet pressure tap',
           'Shutoff reopened and the connection leak-tested',
         ],
-        outcome: 'inlet-pressure',
+        outcome: 'fuel-type',
+      },
+      {
+        id: 'fuel-type',
+        kind: 'inspect',
+        title: 'Which gas does the rating plate name?',
+        instruction: "Read the fuel on the unit's rating plate (and the conversion label, if the unit was converted).",
+        why: 'Natural gas and LP run at very different pressures, so the pressure bands that follow depend on the fuel.',
+        energy: 'any',
+        choices: [
+          { value: 'natural-gas', label: 'Natural gas', outcome: 'inlet-pressure' },
+          { value: 'lp', label: 'LP (propane)', outcome: 'lp-inlet-pressure' },
+        ],
       },
       {
         id: 'inlet-pressure',
@@ -391,7 +403,7 @@ export const DEFAULT_TREE: DefaultTree = {
           { from: 10.5, label: 'Above the usual natural-gas range: check the fuel', verdict: 'above', outcome: 'manifold-pressure' },
         ],
         bandsNote:
-          'Default bands for natural gas — common practice, no source. For LP a lead sets higher bands; the rating plate and the gas valve\'s data rule.',
+          'Default bands for natural gas — common practice, no source. A lead can change them; the rating plate and the gas valve\'s data rule.',
       },
       {
         id: 'manifold-pressure',
@@ -412,6 +424,44 @@ export const DEFAULT_TREE: DefaultTree = {
         ],
         bandsNote:
           'Default bands around the usual natural-gas manifold setting of about 3.5 inWC (LP about 10 to 11 inWC) — common practice, no source. A lead can change them; the rating plate rules.',
+      },
+      {
+        id: 'lp-inlet-pressure',
+        kind: 'measure',
+        title: 'LP inlet pressure',
+        instruction: 'Read the inlet pressure with the gas on, then again during the trial for ignition; enter the lower reading.',
+        cautions: [GAS],
+        why: 'An empty tank, a closed tank valve or a failing regulator starves the burners; the pressure drop when the valve opens shows it.',
+        energy: 'energized',
+        quantity: 'pressure',
+        points: ['gas valve inlet pressure tap', 'atmosphere (manometer open side)'],
+        bands: [
+          { to: 8, label: 'Low or no LP inlet pressure', verdict: 'below', outcome: 'f-no-gas-or-low-pressure' },
+          { from: 8, to: 14, label: 'Normal LP inlet pressure', verdict: 'within', outcome: 'lp-manifold-pressure' },
+          { from: 14, label: 'High LP inlet pressure: check the regulator', verdict: 'above', outcome: 'lp-manifold-pressure' },
+        ],
+        bandsNote:
+          'Default bands for LP supplied at about 11 inWC — common practice, no source. A lead can change them; the rating plate and the gas valve\'s data rule.',
+      },
+      {
+        id: 'lp-manifold-pressure',
+        kind: 'measure',
+        title: 'LP manifold (outlet) pressure during the trial',
+        instruction:
+          "Move the manometer to the valve's outlet pressure tap (gas shut off while you move it, leak-test after), then read it during the trial for ignition.",
+        cautions: [GAS, SPARK],
+        why: 'The outlet pressure shows whether the valve opens and regulates at the LP setting.',
+        energy: 'energized',
+        quantity: 'pressure',
+        points: ['gas valve outlet (manifold) pressure tap', 'atmosphere (manometer open side)'],
+        bands: [
+          { to: 0.5, label: 'No outlet pressure: the valve does not open', verdict: 'below', outcome: 'f-gas-valve-not-opening' },
+          { from: 0.5, to: 9.5, label: 'Low LP manifold pressure', verdict: 'below', outcome: 'f-manifold-pressure-low' },
+          { from: 9.5, to: 11.5, label: 'About 10 to 11 inWC', verdict: 'within', outcome: 'burners-light' },
+          { from: 11.5, label: 'High LP manifold pressure', verdict: 'above', outcome: 'f-manifold-pressure-high' },
+        ],
+        bandsNote:
+          'Default bands around the usual LP manifold setting of about 10 to 11 inWC — common practice, no source. A lead can change them; the rating plate rules.',
       },
       {
         id: 'burners-light',
@@ -797,6 +847,8 @@ export const DEFAULT_TREE: DefaultTree = {
           { step: 'valve-voltage', from: 18, reason: 'The valve is powered' },
           { step: 'inlet-pressure', from: 4.5, reason: 'Gas reaches the valve' },
           { step: 'manifold-pressure', to: 0.5, reason: 'No gas leaves the valve' },
+          { step: 'lp-inlet-pressure', from: 8, reason: 'LP reaches the valve' },
+          { step: 'lp-manifold-pressure', to: 0.5, reason: 'No gas leaves the valve' },
         ],
       },
       {
@@ -809,7 +861,10 @@ export const DEFAULT_TREE: DefaultTree = {
         energy: 'any',
         verification: ['Inlet pressure within the band, steady when the burners fire', VERIFY_CYCLES],
         tags: ['gas-supply'],
-        expects: [{ step: 'inlet-pressure', to: 4.5, reason: 'Low or no gas at the inlet' }],
+        expects: [
+          { step: 'inlet-pressure', to: 4.5, reason: 'Low or no gas at the inlet' },
+          { step: 'lp-inlet-pressure', to: 8, reason: 'Low or no LP at the inlet' },
+        ],
       },
       {
         id: 'f-manifold-pressure-low',
@@ -825,6 +880,8 @@ export const DEFAULT_TREE: DefaultTree = {
         expects: [
           { step: 'inlet-pressure', from: 4.5, reason: 'The supply is good' },
           { step: 'manifold-pressure', from: 0.5, to: 3, reason: 'Low outlet pressure' },
+          { step: 'lp-inlet-pressure', from: 8, reason: 'The LP supply is good' },
+          { step: 'lp-manifold-pressure', from: 0.5, to: 9.5, reason: 'Low LP outlet pressure' },
         ],
       },
       {
@@ -838,7 +895,10 @@ export const DEFAULT_TREE: DefaultTree = {
         parts: ['Gas valve (if it will not regulate)'],
         verification: ['Manifold pressure at the rating plate value', 'Flame steady on the burners and the rod', VERIFY_CYCLES],
         tags: ['gas-supply', 'gas-valve', 'combustion'],
-        expects: [{ step: 'manifold-pressure', from: 4, reason: 'High outlet pressure' }],
+        expects: [
+          { step: 'manifold-pressure', from: 4, reason: 'High outlet pressure' },
+          { step: 'lp-manifold-pressure', from: 11.5, reason: 'High LP outlet pressure' },
+        ],
       },
       {
         id: 'f-blocked-orifices',

@@ -83,6 +83,7 @@ describe('DEFAULT_TREE', () => {
       'thermostat-call': 'calling',
       'spark-observe': 'at-gap',
       'rod-condition': 'good',
+      'fuel-type': 'natural-gas',
       'burners-light': 'light',
       'carry-over': 'carries',
       'rod-inspect': 'good',
@@ -231,5 +232,17 @@ describe('DEFAULT_TREE', () => {
         }
       }
     }
+  });
+
+  it('branches on the fuel so LP readings meet LP bands', () => {
+    const bandFor = (id: string, value: number) => (steps.get(id) as MeasureStep).bands.find((b) => (b.from ?? -Infinity) <= value && value < (b.to ?? Infinity))!;
+    // Natural-gas manifold about 3.5 inWC, LP about 10–11 inWC: TRADE.md, common practice, no source.
+    expect(bandFor('manifold-pressure', 3.5)).toMatchObject({ verdict: 'within', outcome: 'burners-light' });
+    expect(bandFor('lp-manifold-pressure', 10.5)).toMatchObject({ verdict: 'within', outcome: 'burners-light' });
+    // An LP setting read against the natural-gas bands would be "high": the reason for the branch.
+    expect(bandFor('manifold-pressure', 10.5).verdict).toBe('above');
+    expect(bandFor('lp-manifold-pressure', 3.5).verdict).toBe('below');
+    const fuel = steps.get('fuel-type');
+    expect(fuel?.kind === 'inspect' && fuel.choices.map((c) => c.outcome)).toEqual(['inlet-pressure', 'lp-inlet-pressure']);
   });
 });
