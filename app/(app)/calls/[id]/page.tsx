@@ -1,0 +1,194 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { closeCallAction, saveRepairAction, signOffAction, startDiagnosisAction } from '@/app/(app)/calls/actions';
+import { CallCaution } from '@/components/calls/call-caution';
+import { CloseCallControls, RepairForm, SignOffButton, StartDiagnosisButton } from '@/components/calls/call-controls';
+import { CallStatusBadge } from '@/components/calls/call-status';
+import { DIAGNOSIS_LABELS, formatDateTime } from '@/components/calls/format';
+import { ReadingsTable } from '@/components/calls/readings-table';
+import { UnitCard } from '@/components/calls/unit-card';
+import { AppError } from '@/lib/errors';
+import { FIELD_ROLES, ROLE_LABELS, type Role } from '@/lib/roles';
+import { getCallPage } from '@/lib/server/calls';
+import { requirePageUser } from '@/lib/server/guard';
+import { viewerOf } from '@/lib/server/viewer';
+
+export const metadata: Metadata = { title: 'Service call' };
+export const dynamic = 'force-dynamic';
+
+const DIAGNOSIS_ICONS: Record<string, string> = { in_progress: '◐', found: '◆', escalated: '↗' };
+
+export default async function CallPage({ params }: { params: Promise<{ id: string }> }) {
+  const user = await requirePageUser({ roles: FIELD_ROLES });
+  const { id } = await params;
+  let page;
+  try {
+    page = await getCallPage({ viewer: viewerOf(user), id });
+  } catch (error) {
+    if (error instanceof AppError && error.code === 'not_found') notFound();
+    throw error;
+  }
+  const { call, unit, site, diagnoses, readings, defaultTree, closed } = page;
+  const canSignOff = user.role !== 'apprentice';
+  const inProgress = diagnoses.find((d) => d.status === 'in_progress');
+  const checks = [...new Set(diagnoses.flatMap((d) => d.finding?.verification ?? []))];
+  const startReason = closed
+    ? 'This call is closed: open a new call to diagnose again.'
+    : !defaultTree
+      ? 'No published fault tree yet: a lead publishes one first.'
+      : null;
+
+  return (
+    <div className="space-y-6 pb-8">
+      <div className="space-y-2">
+        <Link href="/calls" className="text-sm font-semibold text-muted underline underline-offset-4">
+          ← Service calls
+        </Link>
+        <div className="flex flex-wrap items-start justify-between gap-3">
+          <div>
+            <h1 className="page-title">
+              {site.name} · {unit.label}
+            </h1>
+            <p className="text-muted" suppressHydrationWarning>
+              Opened {formatDateTime(call.openedAt)}
+              {call.closedAt && ` · ${call.status === 'referred' ? 'referred' : 'closed'} ${formatDateTime(call.closedAt)}${call.closedByName ? ` by ${call.closedByName}` : ''}`}
+            </p>
+          </div>
+          <CallStatusBadge status={call.status} />
+        </div>
+      </div>
+
+      <section aria-labelledby="complaint-heading" className="card grid gap-4 sm:grid-cols-[2fr_1fr]">
+        <div>
+          <h2 id="complaint-heading" className="label">
+            Complaint
+          </h2>
+          <p className="text-lg">{call.complaint}</p>
+        </div>
+        <div>
+          <h2 className="label">Technician</h2>
+          <p className="text-lg">
+            {call.technicianName ?? 'Not assigned'}
+            {call.technicianRole && <span className="text-base text-muted"> · {ROLE_LABELS[call.technicianRole as Role]}</span>}
+          </p>
+        </div>
+      </section>
+
+      <CallCaution />
+
+      <UnitCard unit={unit} linkToUnit={user.role !== 'apprentice'} />
+
+      <section aria-labelledby="diagnoses-heading" className="card space-y-4">
+        <div className="flex flex-wrap items-start justify-between gap-3">
+          <div>
+            <h2 id="diagnoses-heading" className="text-xl font-bold">
+              Diagnoses
+            </h2>
+            {defaultTree && (
+              <p className="text-sm text-muted">
+                New diagnoses follow “{defaultTree.title}”, version {defaultTree.version}.
+              </p>
+            )}
+          </div>
+          <StartDiagnosisButton
+            callId={call.id}
+            treeVersionId={defaultTree?.id ?? null}
+            disabledReason={startReason}
+            startDiagnosis={startDiagnosisAction}
+            secondary={Boolean(inProgress) || diagnoses.length > 0}
+          />
+        </div>
+        {diagnoses.length === 0 ? (
+          <p className="text-muted">No diagnosis yet. Start one at the unit: it walks you through the checks one step at a time.</p>
+        ) : (
+          <ol className="space-y-3">
+            {diagnoses.map((d, i) => (
+              <li key={d.id} className="rounded-lg border border-line bg-surface p-4">
+                <div className="flex flex-wrap items-start justify-between gap-3">
+                  <div className="space-y-1">
+                    <p className="text-sm text-muted">
+                      Diagnosis {i + 1} · {d.treeTitle}, v{d.treeVersion}
+                    </p>
+                    <p className="text-lg font-bold">
+                      {d.finding ? d.finding.title : d.status === 'in_progress' ? `In progress, ${d.answers} ${d.answers === 1 ? 'answer' : 'answers'} so far` : 'Escalated'}
+                    </p>
+                    <p className="text-sm" suppressHydrationWarning>
+                      <span className="inline-flex items-center gap-1 font-semibold">
+                        <span aria-hidden className="font-mono">
+                          {DIAGNOSIS_ICONS[d.status]}
+                        </span>
+                        {DIAGNOSIS_LABELS[d.status]}
+                      </span>
+                      {' · '}
+                      {d.startedBy ?? 'Someone'}
+                      {d.startedByRole ? ` (${d.startedByRole})` : ''}, started {formatDateTime(d.startedAt)}
+                    </p>
+                    {d.startedByRole === 'apprentice' && d.status === 'found' && (
+                      <p className="text-sm font-semibold">
+                        {d.signedOff ? (
+                          <span suppressHydrationWarning>
+                            <span aria-hidden>✓ </span>Signed off by {d.signedOff.by}
+                            {d.signedOff.at ? `, ${formatDateTime(d.signedOff.at)}` : ''}
+                          </span>
+                        ) : (
+                          <span>
+                            <span aria-hidden>⚠ </span>Needs a technician’s sign-off before the call can be closed
+                          </span>
+                        )}
+                      </p>
+                    )}
+                  </div>
+                  <div className="flex flex-wrap gap-2">
+                    <Link href={`/calls/${call.id}/diagnoses/${d.id}`} className={d.status === 'in_progress' && !closed ? 'btn-primary' : 'btn-secondary'}>
+                      {d.status === 'in_progress' && !closed ? 'Continue' : 'Open'}
+                      <span className="sr-only"> diagnosis {i + 1}</span>
+                    </Link>
+                  </div>
+                </div>
+                {d.needsSignOff && canSignOff && d.startedById !== user.id && !closed && (
+                  <div className="mt-3">
+                    <SignOffButton callId={call.id} diagnosisId={d.id} signOff={signOffAction} />
+                  </div>
+                )}
+              </li>
+            ))}
+          </ol>
+        )}
+      </section>
+
+      <section aria-labelledby="readings-heading" className="card space-y-3">
+        <h2 id="readings-heading" className="text-xl font-bold">
+          Readings
+        </h2>
+        <ReadingsTable readings={readings} caption="Readings taken on this call" />
+      </section>
+
+      <section aria-labelledby="repair-heading" className="card space-y-3">
+        <h2 id="repair-heading" className="text-xl font-bold">
+          Repair and verification
+        </h2>
+        <RepairForm
+          callId={call.id}
+          record={{ repairNotes: call.repairNotes, verification: call.verification }}
+          checks={checks}
+          readOnly={closed}
+          saveRepair={saveRepairAction}
+        />
+      </section>
+
+      <section aria-labelledby="finish-heading" className="card space-y-3">
+        <h2 id="finish-heading" className="text-xl font-bold">
+          {closed ? 'Report' : 'Finish the call'}
+        </h2>
+        {!closed && user.role !== 'apprentice' && <CloseCallControls callId={call.id} closeCall={closeCallAction} />}
+        {!closed && user.role === 'apprentice' && (
+          <p className="text-muted">A technician reviews your finding, signs it off and closes the call.</p>
+        )}
+        <Link href={`/calls/${call.id}/report`} className="btn-secondary">
+          Service report
+        </Link>
+      </section>
+    </div>
+  );
+}

@@ -1,0 +1,55 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { createCallAction, createSiteAction, createUnitAction } from '@/app/(app)/calls/actions';
+import { NewCallForm } from '@/components/calls/new-call-form';
+import { FIELD_ROLES } from '@/lib/roles';
+import { listCallAssignees, listSitesWithUnits } from '@/lib/server/calls';
+import { requirePageUser } from '@/lib/server/guard';
+import { viewerOf } from '@/lib/server/viewer';
+
+export const metadata: Metadata = { title: 'New service call' };
+export const dynamic = 'force-dynamic';
+
+export default async function NewCallPage({ searchParams }: { searchParams: Promise<{ unitId?: string }> }) {
+  const user = await requirePageUser({ roles: FIELD_ROLES });
+  const viewer = viewerOf(user);
+  const { unitId } = await searchParams;
+  const [sites, assignees] = await Promise.all([listSitesWithUnits({ viewer }), listCallAssignees({ viewer })]);
+  return (
+    <div className="mx-auto max-w-3xl space-y-6">
+      <div>
+        <Link href="/calls" className="text-sm font-semibold text-muted underline underline-offset-4">
+          ← Service calls
+        </Link>
+        <h1 id="new-call-title" className="page-title">
+          New service call
+        </h1>
+        <p className="text-muted">Pick the site and the unit, or add them, then describe the complaint.</p>
+      </div>
+      <NewCallForm
+        sites={sites.map((s) => ({
+          id: s.id,
+          name: s.name,
+          address: s.address,
+          contactEmail: s.contactEmail,
+          units: s.units.map((u) => ({
+            id: u.id,
+            siteId: u.siteId,
+            label: u.label,
+            ignition: u.ignition,
+            fuel: u.fuel,
+            controlSupply: u.controlSupply,
+            transformerVa: u.transformerVa,
+            installYear: u.installYear,
+          })),
+        }))}
+        assignees={assignees}
+        me={{ id: user.id, name: user.name }}
+        preselectUnitId={unitId}
+        createSite={createSiteAction}
+        createUnit={createUnitAction}
+        createCall={createCallAction}
+      />
+    </div>
+  );
+}
