@@ -1,0 +1,122 @@
+import type { Metadata } from 'next';
+import Link from 'next/link';
+import { notFound } from 'next/navigation';
+import { CallStatusBadge } from '@/components/calls/call-status';
+import { formatDate } from '@/components/calls/format';
+import { ReadingsTable } from '@/components/calls/readings-table';
+import { UnitCard } from '@/components/calls/unit-card';
+import { FlameSignalChart } from '@/components/units/flame-signal-chart';
+import { AppError } from '@/lib/errors';
+import { getUnitPage } from '@/lib/server/calls';
+import { requirePageUser } from '@/lib/server/guard';
+import { viewerOf } from '@/lib/server/viewer';
+
+export const metadata: Metadata = { title: 'Unit' };
+export const dynamic = 'force-dynamic';
+
+const UNIT_ROLES = ['technician', 'lead', 'admin'] as const;
+
+export default async function UnitPage({ params }: { params: Promise<{ id: string }> }) {
+  const user = await requirePageUser({ roles: UNIT_ROLES });
+  const { id } = await params;
+  let page;
+  try {
+    page = await getUnitPage({ viewer: viewerOf(user), id });
+  } catch (error) {
+    if (error instanceof AppError && error.code === 'not_found') notFound();
+    throw error;
+  }
+  const { unit, site, visits, readings, flame } = page;
+  return (
+    <div className="space-y-6 pb-8">
+      <div className="space-y-2">
+        <Link href="/units" className="text-sm font-semibold text-muted underline underline-offset-4">
+          ← Units
+        </Link>
+        <div className="flex flex-wrap items-end justify-between gap-3">
+          <div>
+            <h1 className="page-title">{unit.label}</h1>
+            <p className="text-muted">
+              {site.name} · {site.address}
+            </p>
+          </div>
+          <Link href={`/calls/new?unitId=${unit.id}`} className="btn-primary">
+            New call for this unit
+          </Link>
+        </div>
+      </div>
+
+      <UnitCard unit={unit} linkToUnit={false} heading="Attributes" />
+
+      <section aria-labelledby="flame-heading" className="card space-y-3">
+        <h2 id="flame-heading" className="text-xl font-bold">
+          Flame signal across visits
+        </h2>
+        <FlameSignalChart
+          diagnosis={flame.diagnosis.map((p) => ({ at: p.at.toISOString(), value: p.value }))}
+          afterRepair={flame.afterRepair.map((p) => ({ at: new Date(p.at).toISOString(), value: p.value }))}
+          bands={flame.bands}
+        />
+      </section>
+
+      <section aria-labelledby="visits-heading" className="card space-y-3">
+        <h2 id="visits-heading" className="text-xl font-bold">
+          Visits
+        </h2>
+        {visits.length === 0 ? (
+          <p className="text-muted">No calls on this unit yet.</p>
+        ) : (
+          <ol className="space-y-2">
+            {visits.map((v) => (
+              <li key={v.id} className="rounded-lg border border-line bg-surface p-3">
+                <div className="flex flex-wrap items-start justify-between gap-2">
+                  <div className="min-w-0 flex-1">
+                    <p className="text-sm text-muted" suppressHydrationWarning>
+                      {formatDate(v.openedAt)} · {v.technicianName ?? 'Unassigned'}
+                    </p>
+                    <Link href={`/calls/${v.id}`} className="font-semibold underline decoration-copper decoration-2 underline-offset-4">
+                      {v.complaint}
+                    </Link>
+                    <p className="mt-1">
+                      <span className="text-muted">Finding: </span>
+                      {v.findings.length ? v.findings.join('; ') : <span className="text-muted">none recorded</span>}
+                      {v.flameAfterRepair !== null && (
+                        <span className="text-muted">
+                          {' '}
+                          · after repair <span className="font-mono text-ink">{v.flameAfterRepair} µA</span>
+                        </span>
+                      )}
+                    </p>
+                  </div>
+                  <CallStatusBadge status={v.status} />
+                </div>
+              </li>
+            ))}
+          </ol>
+        )}
+      </section>
+
+      <section aria-labelledby="unit-readings-heading" className="card space-y-3">
+        <h2 id="unit-readings-heading" className="text-xl font-bold">
+          Readings
+        </h2>
+        <ReadingsTable
+          caption="Readings taken on this unit"
+          readings={readings
+            .map((r) => ({
+              id: r.answerId,
+              stepTitle: r.stepTitle ?? r.stepId,
+              points: null,
+              text: r.text,
+              value: r.value,
+              unit: r.unit,
+              band: r.bandLabel,
+              verdict: r.verdict,
+              at: r.takenAt,
+            }))
+            .reverse()}
+        />
+      </section>
+    </div>
+  );
+}
