@@ -1,0 +1,278 @@
+// The guided-diagnosis API over HTTP: trees, sites, units, calls, diagnoses, answers and undo, for
+// every role, with the refusals (bad input, someone else's call, another company) storing nothing.
+import { randomUUID } from 'node:crypto';
+import { beforeAll, describe, expect, it } from 'vitest';
+import { DEMO, signedIn, type ApiClient } from '../support/http';
+
+let tech: ApiClient;
+let appr: ApiClient;
+let lead: ApiClient;
+let trainer: ApiClient;
+let other: ApiClient;
+let versionId: string;
+let unitId: string;
+
+async function newCall(client: ApiClient, complaint = 'No heat (API test)') {
+  const res = await client.post('/api/calls', { unitId, complaint });
+  expect(res.status, res.text).toBe(201);
+  return res.json.id as string;
+}
+
+async function newDiagnosis(client: ApiClient, callId: string) {
+  const res = await client.post(`/api/calls/${callId}/diagnoses`, { treeVersionId: versionId });
+  expect(res.status, res.text).toBe(201);
+  return { id: res.json.id as string, step: res.json.step };
+}
+
+const answer = (client: ApiClient, diagnosisId: string, body: Record<string, unknown>) =>
+  client.post(`/api/diagnoses/${diagnosisId}/answers`, { clientId: randomUUID(), ...body });
+
+/** Answers the current step from a script keyed by step id; actions are confirmed. */
+async function walk(client: ApiClient, diagnosisId: string, first: any, script: Record<string, string>) {
+  let step = first;
+  const seen: string[] = [];
+  for (let i = 0; i < 80 && step; i++) {
+    seen.push(step.id);
+    const body = step.kind === 'measure' ? { stepId: step.id, text: script[step.id] } : step.kind === 'inspect' ? { stepId: step.id, choice: script[step.id] } : { stepId: step.id, confirmed: true };
+    if ((step.kind === 'measure' || step.kind === 'inspect') && script[step.id] === undefined) throw new Error(`no scripted answer for ${step.id}`);
+    const res = await answer(client, diagnosisId, body);
+    expect(res.status, `${step.id}: ${res.text}`).toBe(200);
+    if (res.json.finding) return { finding: res.json.finding, seen, last: res.json };
+    step = res.json.next;
+  }
+  throw new Error('no finding reached');
+}
+
+// Readings of a healthy 24 V-controlled natural-gas furnace (invented test values inside the
+// default bands); each test overrides what is wrong.
+const HEALTHY: Record<string, string> = {
+  'line-voltage': '121 VAC',
+  'control-supply': 'low-voltage-only',
+  'transformer-secondary': '26.1',
+  'fuse-output': '26',
+  'thermostat-call': 'calling',
+  'w-voltage': '25.8',
+  'control-th-input': '25.6 V',
+  'spark-observe': 'at-gap',
+  'spark-gap': '1/8',
+  'rod-condition': 'good',
+  'valve-voltage': '25.2',
+  'fuel-type': 'natural-gas',
+  'inlet-pressure': '7 "wc',
+  'manifold-pressure': '3.5 inWC',
+  'burners-light': 'light',
+  'carry-over': 'carries',
+  'flame-signal': '4.5 uA',
+  'rod-inspect': 'good',
+};
+
+beforeAll(async () => {
+  [tech, appr, lead, trainer, other] = await Promise.all([
+    signedIn(DEMO.technician),
+    signedIn(DEMO.apprentice),
+    signedIn(DEMO.lead),
+    signedIn(DEMO.trainer),
+    signedIn(DEMO.otherTechnician),
+  ]);
+  const trees = await tech.get('/api/trees');
+  expect(trees.status).toBe(200);
+  const tree = trees.json.find((t: any) => t.slug === 'no-heat-dsi');
+  expect(tree.published.version).toBe(1);
+  versionId = tree.published.id;
+  const site = await tech.post('/api/sites', { name: 'API test site', address: '9 Probe Lane' });
+  expect(site.status, site.text).toBe(201);
+  const unit = await tech.post('/api/units', { siteId: site.json.id, label: 'API test furnace', ignition: 'two-rod', fuel: 'natural-gas', controlSupply: '24v', transformerVa: 40, installYear: 2015 });
+  expect(unit.status, unit.text).toBe(201);
+  unitId = unit.json.id;
+});
+
+describe('trees', () => {
+  it('serves the published default tree with API-shaped steps', async () => {
+    const v = await tech.get(`/api/tree-versions/${versionId}`);
+    expect(v.status).toBe(200);
+    expect(v.json.status).toBe('published');
+    const steps = v.json.graph.steps;
+    expect(steps.filter((s: any) => s.kind === 'finding').length).toBeGreaterThanOrEqual(20);
+    const first = steps.find((s: any) => s.id === v.json.graph.start);
+    expect(first).toMatchObject({ kind: 'measure', quantity: 'vac', unit: 'VAC' });
+    expect(first.points).toHaveLength(2);
+    // Every caution carries an ANSI Z535 signal word (ANSI Z535.4).
+    for (const s of steps) for (const c of s.cautions) expect(['DANGER', 'WARNING', 'CAUTION', 'NOTICE']).toContain(c.signal);
+  });
+
+  it("is invisible to another company (404) and anonymous users (401)", async () => {
+    expect((await other.get(`/api/tree-versions/${versionId}`)).status).toBe(404);
+    expect((await other.get('/api/tree-versions/not-a-uuid')).status).toBe(404);
+    const theirs = await other.get('/api/trees');
+    expect(theirs.json.map((t: any) => t.published.id)).not.toContain(versionId);
+  });
+});
+
+describe('sites, units and calls', () => {
+  it('refuses bad units with field errors and stores nothing', async () => {
+    const before = (await tech.get('/api/units')).json.length;
+    const bad = await tech.post('/api/units', { siteId: randomUUID(), label: '', ignition: 'hot-surface', fuel: 'natural-gas', controlSupply: '24v', transformerVa: -5 });
+    expect(bad.status).toBe(400);
+    expect(Object.keys(bad.json.error.fieldErrors)).toEqual(expect.arrayContaining(['label', 'ignition', 'transformerVa']));
+    const missingSite = await tech.post('/api/units', { siteId: randomUUID(), label: 'Ghost', ignition: 'two-rod', fuel: 'lp', controlSupply: 'line', transformerVa: 40 });
+    expect(missingSite.status).toBe(404);
+    expect((await tech.get('/api/units')).json.length).toBe(before);
+  });
+
+  it('lets technicians see their own calls, leads all, trainers none', async () => {
+    const callId = await newCall(tech);
+    expect((await tech.get(`/api/calls/${callId}`)).json).toMatchObject({ id: callId, status: 'open', unit: { id: unitId } });
+    expect((await lead.get(`/api/calls/${callId}`)).status).toBe(200);
+    expect((await appr.get(`/api/calls/${callId}`)).status).toBe(404);
+    expect((await trainer.get(`/api/calls/${callId}`)).status).toBe(404);
+    expect((await other.get(`/api/calls/${callId}`)).status).toBe(404);
+    expect((await trainer.get('/api/calls')).json).toEqual([]);
+    expect((await trainer.post('/api/calls', { unitId, complaint: 'x' })).status).toBe(403);
+    const mine = await tech.get('/api/calls?status=open&technician=me');
+    expect(mine.json.map((c: any) => c.id)).toContain(callId);
+    expect(mine.json.every((c: any) => c.status === 'open')).toBe(true);
+    expect((await tech.get('/api/calls?status=burning')).status).toBe(400);
+    expect((await other.get('/api/calls')).json.map((c: any) => c.id)).not.toContain(callId);
+  });
+
+  it("does not let a technician assign someone else's call, nor another company's unit", async () => {
+    const me = (await appr.get('/api/me')).json;
+    expect((await tech.post('/api/calls', { unitId, complaint: 'x', technicianId: me.id })).status).toBe(403);
+    expect((await other.post('/api/calls', { unitId, complaint: 'x' })).status).toBe(404);
+    const assigned = await lead.post('/api/calls', { unitId, complaint: 'Dispatched', technicianId: me.id });
+    expect(assigned.status).toBe(201);
+    expect((await appr.get(`/api/calls/${assigned.json.id}`)).status).toBe(200);
+  });
+
+  it('returns the unit with its readings history', async () => {
+    const res = await tech.get(`/api/units/${unitId}`);
+    expect(res.status).toBe(200);
+    expect(res.json).toMatchObject({ id: unitId, ignition: 'two-rod', transformerVa: 40 });
+    expect(Array.isArray(res.json.readings)).toBe(true);
+    expect((await other.get(`/api/units/${unitId}`)).status).toBe(404);
+  });
+});
+
+describe('diagnoses', () => {
+  it('walks to "dirty or oxidized flame rod" on a low flame signal, inserting lock-out and re-energize', async () => {
+    const callId = await newCall(tech);
+    const d = await newDiagnosis(tech, callId);
+    expect(d.step.id).toBe('line-voltage');
+    const { finding, seen, last } = await walk(tech, d.id, d.step, { ...HEALTHY, 'flame-signal': '0.9 µA', 'rod-inspect': 'dirty' });
+    expect(finding.id).toBe('f-dirty-flame-rod');
+    expect(last.next).toBeNull();
+    // Lockout/tagout before handling the rods (OSHA 29 CFR 1910.147), re-energize before live readings.
+    expect(seen).toContain('lock-out--spark-gap');
+    expect(seen).toContain('re-energize--valve-voltage');
+    expect(seen.indexOf('lock-out--spark-gap')).toBe(seen.indexOf('spark-gap') - 1);
+    const view = await tech.get(`/api/diagnoses/${d.id}`);
+    expect(view.json).toMatchObject({ status: 'found', current: null, finding: { id: 'f-dirty-flame-rod' } });
+    const flame = view.json.path.find((a: any) => a.stepId === 'flame-signal');
+    expect(flame).toMatchObject({ text: '0.9 µA', value: 0.9, quantity: 'udc', verdict: 'below' });
+    // The spark gap typed as a fraction is stored in inches: 1/8 in = 0.125 in (common practice gap, TRADE.md).
+    expect(view.json.path.find((a: any) => a.stepId === 'spark-gap').value).toBeCloseTo(0.125, 10);
+    expect(view.json.contradictions).toEqual([]);
+    expect((await tech.get(`/api/calls/${callId}`)).json.status).toBe('diagnosing');
+  });
+
+  it('reads a value in another unit against the canonical bands (3.2 mm gap is about 1/8 in)', async () => {
+    const d = await newDiagnosis(tech, await newCall(tech));
+    const { finding, last } = await walk(tech, d.id, d.step, { ...HEALTHY, 'spark-gap': '3.2 mm', 'fuse-output': '0.3' });
+    expect(finding.id).toBe('f-blown-fuse');
+    expect(last.answer).toMatchObject({ stepId: 'fuse-output', verdict: 'below' });
+  });
+
+  it('flags a reading that contradicts the finding (a healthy flame signal measured later on the call)', async () => {
+    const callId = await newCall(tech);
+    const first = await newDiagnosis(tech, callId);
+    const low = await walk(tech, first.id, first.step, { ...HEALTHY, 'flame-signal': '1.1', 'rod-inspect': 'dirty' });
+    expect(low.finding.id).toBe('f-dirty-flame-rod');
+    expect((await tech.get(`/api/diagnoses/${first.id}`)).json.contradictions).toEqual([]);
+    // A second walk on the same call measures a good signal (common practice: a few µA is good,
+    // TRADE.md); the latest reading of the step now contradicts "dirty rod" on the first diagnosis.
+    const second = await newDiagnosis(tech, callId);
+    const good = await walk(tech, second.id, second.step, { ...HEALTHY, 'flame-signal': '4.6 µA' });
+    expect(good.finding.id).toBe('f-control-not-sensing');
+    const view = await tech.get(`/api/diagnoses/${first.id}`);
+    expect(view.json.contradictions).toEqual([expect.objectContaining({ stepId: 'flame-signal', value: 4.6 })]);
+  });
+
+  it('stores a retried answer once, answers 409 for a step that is not current, and undoes', async () => {
+    const d = await newDiagnosis(tech, await newCall(tech));
+    const body = { clientId: randomUUID(), stepId: 'line-voltage', text: '120.5' };
+    const a1 = await tech.post(`/api/diagnoses/${d.id}/answers`, body);
+    const a2 = await tech.post(`/api/diagnoses/${d.id}/answers`, body);
+    expect(a1.status).toBe(200);
+    expect(a2.json).toEqual(a1.json);
+    expect(a1.json.verdict).toMatchObject({ verdict: 'within', outcome: 'control-supply' });
+    expect(a1.json.verdict.position).toBeGreaterThan(0);
+    expect(a1.json.verdict.position).toBeLessThan(1);
+    let view = await tech.get(`/api/diagnoses/${d.id}`);
+    expect(view.json.path).toHaveLength(1);
+    expect(view.json.current.id).toBe('control-supply');
+    expect((await answer(tech, d.id, { stepId: 'line-voltage', text: '120' })).status).toBe(409);
+    const undo = await tech.call('DELETE', `/api/diagnoses/${d.id}/answers/last`);
+    expect(undo.status).toBe(200);
+    expect(undo.json.path).toHaveLength(0);
+    expect(undo.json.current.id).toBe('line-voltage');
+    expect((await tech.call('DELETE', `/api/diagnoses/${d.id}/answers/last`)).status).toBe(409);
+    view = await tech.get(`/api/diagnoses/${d.id}`);
+    expect(view.json.path).toHaveLength(0);
+  });
+
+  it('refuses bad input with a clear 400 and stores nothing', async () => {
+    const d = await newDiagnosis(tech, await newCall(tech));
+    const cases: [Record<string, unknown>, RegExp][] = [
+      [{ stepId: 'line-voltage', text: 'abc' }, /number|read/i],
+      [{ stepId: 'line-voltage', text: '' }, /empty/i],
+      [{ stepId: 'line-voltage', text: '1e999' }, /finite|infinit|large|range/i],
+      [{ stepId: 'line-voltage', text: '12 kPa' }, /pressure/i],
+      [{ stepId: 'line-voltage', text: '5000' }, /range/i],
+      [{ stepId: 'no-such-step', text: '1' }, /not a step/i],
+      [{ stepId: 'control-supply', choice: 'maybe' }, /choose one of/i],
+    ];
+    for (const [body, message] of cases) {
+      const res = await answer(tech, d.id, body);
+      expect(res.status, JSON.stringify(body)).toBe(400);
+      expect(res.json.error.message, JSON.stringify(body)).toMatch(message);
+    }
+    expect((await tech.post(`/api/diagnoses/${d.id}/answers`, { stepId: 'line-voltage', text: '120' })).status).toBe(400);
+    expect((await tech.post(`/api/diagnoses/${d.id}/answers`, undefined, { raw: '{oops' })).status).toBe(400);
+    expect((await tech.get(`/api/diagnoses/${d.id}`)).json.path).toHaveLength(0);
+  });
+
+  it("keeps others out: apprentice, trainer and the other company get 404; anonymous 401", async () => {
+    const d = await newDiagnosis(tech, await newCall(tech));
+    for (const client of [appr, trainer, other]) {
+      expect((await client.get(`/api/diagnoses/${d.id}`)).status).toBe(404);
+      expect((await answer(client, d.id, { stepId: 'line-voltage', text: '120' })).status).toBe(404);
+      expect((await client.call('DELETE', `/api/diagnoses/${d.id}/answers/last`)).status).toBe(404);
+    }
+    expect((await other.post(`/api/calls/${(await tech.get(`/api/diagnoses/${d.id}`)).json.callId}/diagnoses`, { treeVersionId: versionId })).status).toBe(404);
+    const { ApiClient } = await import('../support/http');
+    const anon = new ApiClient();
+    expect((await anon.get(`/api/diagnoses/${d.id}`)).status).toBe(401);
+    expect((await tech.get(`/api/diagnoses/${d.id}`)).json.path).toHaveLength(0);
+  });
+
+  it("needs a technician's sign-off on an apprentice's finding before the call closes", async () => {
+    const me = (await appr.get('/api/me')).json;
+    const call = await lead.post('/api/calls', { unitId, complaint: 'Apprentice call', technicianId: me.id });
+    const d = await newDiagnosis(appr, call.json.id);
+    await walk(appr, d.id, d.step, { ...HEALTHY, 'control-th-input': '0.3', 'high-limit-across': '25.4' });
+    const repair = await tech.call('PUT', `/api/calls/${call.json.id}/repair`, { repairNotes: 'Replaced the clogged filter', cycles: 3, flameSignal: '4.4 µA', checks: [] });
+    expect(repair.status, repair.text).toBe(200);
+    expect(repair.json.verification.flameSignal.value).toBeCloseTo(4.4, 10);
+    const refused = await tech.post(`/api/calls/${call.json.id}/close`, { outcome: 'closed' });
+    expect(refused.status).toBe(409);
+    expect(refused.json.error.message).toMatch(/sign-off/);
+    expect((await appr.post(`/api/diagnoses/${d.id}/sign-off`)).status).toBe(403);
+    const signed = await tech.post(`/api/diagnoses/${d.id}/sign-off`);
+    expect(signed.status, signed.text).toBe(200);
+    expect(signed.json.signedOff.by).toBeTruthy();
+    const closed = await tech.post(`/api/calls/${call.json.id}/close`, { outcome: 'closed' });
+    expect(closed.status, closed.text).toBe(200);
+    expect(closed.json.status).toBe('closed');
+    expect((await answer(appr, d.id, { stepId: 'line-voltage', text: '120' })).status).toBe(409);
+  });
+});
