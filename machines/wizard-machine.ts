@@ -101,6 +101,8 @@ export type WizardEvent =
   | { type: 'answer.submit'; answer: Omit<WizardAnswer, 'clientId' | 'kind'> & { clientId?: string } }
   | { type: 'answer.undo' }
   | { type: 'view.loaded'; view: WizardView }
+  /** A queue found in storage after the page loaded (kept out of the first render so it hydrates). */
+  | { type: 'queue.restore'; pending: PendingAnswer[] }
   | { type: 'network.online' }
   | { type: 'network.offline' }
   | { type: 'retry.now' }
@@ -325,6 +327,17 @@ export const wizardMachine = setup({
     },
     'view.loaded': {
       actions: ['reconcileView', { type: 'persistQueue', params: ({ context }) => ({ pending: context.pending }) }],
+    },
+    'queue.restore': {
+      actions: [
+        assign(({ context, event }) => {
+          const known = new Set(context.pending.map((p) => p.clientId));
+          const merged = [...context.pending, ...event.pending.filter((p) => !known.has(p.clientId))];
+          const { pending } = reconcileQueue(context.version, context.saved, merged);
+          return { pending, ...derive(context.version, context.saved, pending) };
+        }),
+        { type: 'persistQueue', params: ({ context }) => ({ pending: context.pending }) },
+      ],
     },
     'network.offline': { actions: assign({ online: false }) },
     'network.online': { actions: assign({ online: true }) },

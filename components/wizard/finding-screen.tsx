@@ -1,0 +1,121 @@
+import Link from 'next/link';
+import type { FindingStep, TreeVersion } from '@/lib/trees/schema';
+import { formatReading } from '@/lib/units';
+import { getStep } from '@/machines/diagnosis-machine';
+import { CautionList } from '@/components/ui/caution';
+import { ActionBar } from '@/components/wizard/action-bar';
+
+export interface ContradictionView {
+  stepId: string;
+  value: number;
+  expected: { from?: number; to?: number };
+  reason: string;
+  takenAt?: string;
+}
+
+function expectedText(version: TreeVersion, c: ContradictionView) {
+  const step = getStep(version, c.stepId);
+  const fmt = (v: number) => (step?.kind === 'measure' ? formatReading(step.quantity, v, undefined, { fraction: true }) : String(v));
+  if (c.expected.from !== undefined && c.expected.to !== undefined) return `${fmt(c.expected.from)} to ${fmt(c.expected.to)}`;
+  if (c.expected.from !== undefined) return `${fmt(c.expected.from)} or more`;
+  if (c.expected.to !== undefined) return `under ${fmt(c.expected.to)}`;
+  return 'any value';
+}
+
+export interface FindingScreenProps {
+  finding: FindingStep;
+  version: TreeVersion;
+  callId: string;
+  /** null while the server has not confirmed the finding yet (answers still waiting to be saved). */
+  contradictions: ContradictionView[] | null;
+  needsSignOff: boolean;
+  signedOff: { by: string | null; at: string | Date | null } | null;
+}
+
+export function FindingScreen({ finding, version, callId, contradictions, needsSignOff, signedOff }: FindingScreenProps) {
+  const disagree = contradictions && contradictions.length > 0;
+  return (
+    <div className="space-y-5" data-testid="finding">
+      <p className="text-sm font-semibold uppercase tracking-wide text-muted">Finding</p>
+      {disagree && (
+        <section role="alert" aria-labelledby="contradictions-h" className="rounded-xl border-4 border-double border-ink bg-sunken p-4" data-testid="contradictions">
+          <h2 id="contradictions-h" className="flex items-center gap-2 text-lg font-bold">
+            <span aria-hidden className="font-mono text-2xl">≠</span>
+            {contradictions.length === 1 ? 'A reading disagrees with this finding' : `${contradictions.length} readings disagree with this finding`}
+          </h2>
+          <p className="mb-2 text-base">Check these before you accept it; re-measure, or undo to a step and take it again.</p>
+          <ul className="space-y-2">
+            {contradictions.map((c, i) => {
+              const step = getStep(version, c.stepId);
+              const shown = step?.kind === 'measure' ? formatReading(step.quantity, c.value, undefined, { fraction: true }) : String(c.value);
+              return (
+                <li key={i} className="rounded-lg bg-raised px-3 py-2">
+                  <p className="font-semibold">{step?.title ?? c.stepId}</p>
+                  <p>
+                    Read <span className="font-mono font-semibold">{shown}</span>; this finding expects <span className="font-mono">{expectedText(version, c)}</span>.
+                  </p>
+                  <p className="text-sm text-muted">{c.reason}</p>
+                </li>
+              );
+            })}
+          </ul>
+        </section>
+      )}
+      <h1 className="page-title" tabIndex={-1} data-step-heading>
+        {finding.title}
+      </h1>
+      {needsSignOff && (
+        <p className="inline-flex items-center gap-2 rounded-full border-2 border-ink px-4 py-1 font-semibold" data-testid="needs-sign-off">
+          <span aria-hidden>✎</span> Needs a technician’s sign-off
+        </p>
+      )}
+      {signedOff && (
+        <p className="text-base text-muted">
+          Signed off by {signedOff.by ?? 'a technician'}
+          {signedOff.at ? ` on ${new Date(signedOff.at).toLocaleString()}` : ''}.
+        </p>
+      )}
+      <CautionList cautions={finding.cautions} />
+      <section className="card space-y-4">
+        <div>
+          <h2 className="text-lg font-bold">What is wrong</h2>
+          <p>{finding.explanation}</p>
+        </div>
+        <div>
+          <h2 className="text-lg font-bold">Remedy</h2>
+          <p>{finding.remedy}</p>
+        </div>
+        {finding.parts.length > 0 && (
+          <div>
+            <h2 className="text-lg font-bold">Parts</h2>
+            <ul className="list-disc pl-6">
+              {finding.parts.map((p) => (
+                <li key={p}>{p}</li>
+              ))}
+            </ul>
+          </div>
+        )}
+        <div>
+          <h2 className="text-lg font-bold">Verify the repair</h2>
+          <ul className="space-y-1">
+            {finding.verification.map((v) => (
+              <li key={v} className="flex gap-2">
+                <span aria-hidden className="font-mono">
+                  ☐
+                </span>
+                {v}
+              </li>
+            ))}
+          </ul>
+          <p className="mt-2 text-sm text-muted">Record the repair and tick these on the call page.</p>
+        </div>
+      </section>
+      {contradictions === null && <p className="text-base text-muted">Checking this finding against the readings once every answer is saved…</p>}
+      <ActionBar hint={disagree ? 'Readings disagree — check them first.' : undefined}>
+        <Link href={`/calls/${callId}`} className="btn-primary min-w-[12rem] text-lg">
+          {disagree ? 'Accept anyway — go to the call' : 'Accept finding — go to the call'}
+        </Link>
+      </ActionBar>
+    </div>
+  );
+}

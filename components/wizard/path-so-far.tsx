@@ -1,0 +1,41 @@
+import type { PathItem } from '@/machines/wizard-machine';
+import { VERDICT_ICON, VERDICT_WORD } from '@/components/wizard/band-gauge';
+
+function answerText(item: PathItem) {
+  if (item.kind === 'measure') {
+    const typed = item.text ?? '';
+    const withUnit = item.unit && !typed.includes(item.unit) ? `${typed} ${item.unit}` : typed;
+    return <span className="font-mono">{withUnit}</span>;
+  }
+  if (item.kind === 'inspect') return item.choiceLabel ?? '';
+  return 'Done';
+}
+
+/** The answers given so far, oldest first; collapsed so the current step keeps the screen. */
+export function PathSoFar({ items }: { items: PathItem[] }) {
+  if (items.length === 0) return null;
+  return (
+    <details className="rounded-lg border border-line bg-raised" data-testid="path-so-far">
+      <summary className="flex min-h-touch cursor-pointer items-center px-4 font-semibold">Path so far ({items.length})</summary>
+      <ol className="divide-y divide-line px-4 pb-2">
+        {items.map((item, i) => (
+          <li key={item.clientId} className="grid grid-cols-[2rem_minmax(0,1fr)] gap-x-2 py-2 sm:grid-cols-[2rem_minmax(0,1fr)_minmax(0,1fr)]">
+            <span className="font-mono text-sm text-muted">{i + 1}.</span>
+            <span className="font-medium">{item.stepTitle}</span>
+            <span className="col-start-2 sm:col-start-3">
+              {answerText(item)}
+              {item.verdict && (
+                <span className="ml-2 text-sm">
+                  <span aria-hidden>{VERDICT_ICON[item.verdict]} </span>
+                  {VERDICT_WORD[item.verdict]}
+                  {item.band ? ` — ${item.band}` : ''}
+                </span>
+              )}
+              {!item.saved && <span className="ml-2 text-sm italic text-muted">(not saved yet)</span>}
+            </span>
+          </li>
+        ))}
+      </ol>
+    </details>
+  );
+}

@@ -1,0 +1,70 @@
+import clsx from 'clsx';
+import type { MeasureStep } from '@/lib/trees/schema';
+
+/** Whether the unit is powered: shown large, as a word and a symbol, on every step. */
+export function EnergyBadge({ energy }: { energy: 'energized' | 'locked-out' }) {
+  const live = energy === 'energized';
+  return (
+    <p
+      data-testid="energy-badge"
+      data-energy={energy}
+      className={clsx(
+        'inline-flex min-h-touch items-center gap-2 rounded-full border-2 px-4 text-base font-bold',
+        live ? 'border-ink bg-ink text-surface' : 'border-ink bg-raised text-ink',
+      )}
+    >
+      <svg aria-hidden viewBox="0 0 24 24" className="h-6 w-6 fill-current">
+        {live ? (
+          <path d="M13 2 4 14h6l-1 8 9-12h-6l1-8z" />
+        ) : (
+          <path d="M7 10V7a5 5 0 0 1 10 0v3h1.5A1.5 1.5 0 0 1 20 11.5v9a1.5 1.5 0 0 1-1.5 1.5h-13A1.5 1.5 0 0 1 4 20.5v-9A1.5 1.5 0 0 1 5.5 10H7zm2 0h6V7a3 3 0 0 0-6 0v3z" />
+        )}
+      </svg>
+      <span>
+        <span className="sr-only">Unit is </span>
+        {live ? 'Energized' : 'Locked out'}
+      </span>
+    </p>
+  );
+}
+
+const METER_FUNCTION: Record<MeasureStep['quantity'], string> = {
+  vac: 'AC volts',
+  vdc: 'DC volts',
+  udc: 'DC microamps',
+  ohm: 'Ohms',
+  length: 'Gauge or rule',
+  pressure: 'Manometer',
+};
+
+/** The two named points the meter goes between (for microamps, the meter in series between them). */
+export function TestPoints({ step }: { step: Pick<MeasureStep, 'points' | 'quantity'> }) {
+  const series = step.quantity === 'udc';
+  return (
+    <div className="rounded-lg border border-line bg-sunken px-4 py-3" data-testid="test-points">
+      <p className="text-sm font-semibold uppercase tracking-wide text-muted">
+        {METER_FUNCTION[step.quantity]} · {series ? 'meter in series' : 'test points'}
+      </p>
+      <p className="mt-1 break-words font-mono text-lg font-semibold sm:text-xl">
+        {step.points[0]} <span aria-hidden>{series ? '→ meter →' : '⟷'}</span>
+        <span className="sr-only">{series ? ' through the meter to ' : ' and '}</span> {step.points[1]}
+      </p>
+    </div>
+  );
+}
+
+/** The learner's note: closed by default so it never pushes the instruction down. */
+export function WhyThisStep({ why }: { why?: string }) {
+  if (!why) return null;
+  return (
+    <details className="group rounded-lg border border-line bg-raised">
+      <summary className="flex min-h-touch cursor-pointer list-none items-center gap-2 px-4 font-semibold">
+        <span aria-hidden className="transition-transform group-open:rotate-90">
+          ▶
+        </span>
+        Why this step
+      </summary>
+      <p className="px-4 pb-4 text-base">{why}</p>
+    </details>
+  );
+}

@@ -1,0 +1,331 @@
+'use client';
+
+import { useMachine } from '@xstate/react';
+import clsx from 'clsx';
+import { useEffect, useMemo, useRef, useState } from 'react';
+import { fromPromise } from 'xstate';
+import type { ActionStep, FindingStep, InspectStep, MeasureStep, TreeVersion } from '@/lib/trees/schema';
+import { displayUnitFor, type UnitSystem } from '@/lib/units';
+import { useDiagnosis, type DiagnosisViewJson } from '@/lib/swr/use-diagnosis';
+import { getStep } from '@/machines/diagnosis-machine';
+import { pathItems, syncStatus, wizardMachine, type PendingAnswer, type SaveOutcome, type ServerAnswer, type WizardView } from '@/machines/wizard-machine';
+import { CautionList } from '@/components/ui/caution';
+import { ActionBar } from '@/components/wizard/action-bar';
+import { ElectricalAids } from '@/components/wizard/electrical-aids';
+import { FindingScreen } from '@/components/wizard/finding-screen';
+import { IgnitionTimeline, TIMELINE_STEPS } from '@/components/wizard/ignition-timeline';
+import { PathSoFar } from '@/components/wizard/path-so-far';
+import { ProcedureChecklist } from '@/components/wizard/procedure-checklist';
+import { parseEntry, ReadingEntry, type ReadingValue } from '@/components/wizard/reading-entry';
+import { EnergyBadge, TestPoints, WhyThisStep } from '@/components/wizard/step-parts';
+import { SyncStatus } from '@/components/wizard/sync-status';
+import { UndoLast } from '@/components/wizard/undo-last';
+
+type ActionResult<T> = { ok: true; data: T } | { ok: false; message: string; fieldErrors?: Record<string, string[]> };
+
+/** The server actions, passed in by the page (components do not import from app/). */
+export interface WizardActions {
+  submitAnswer: (input: {
+    diagnosisId: string;
+    answer: { clientId: string; stepId: string; text?: string; unit?: string; choice?: string; confirmed?: boolean };
+  }) => Promise<ActionResult<{ type: 'saved'; result: { answer: ServerAnswer } } | { type: 'refused' | 'conflict'; message: string }>>;
+  undoAnswer: (input: { diagnosisId: string }) => Promise<ActionResult<WizardView>>;
+}
+
+export interface WizardProps {
+  actions: WizardActions;
+  diagnosisId: string;
+  callId: string;
+  version: TreeVersion;
+  initialView: DiagnosisViewJson;
+  displayUnits: UnitSystem;
+  transformerVa: number | null;
+}
+
+const queueKey = (id: string) => `pg-wizard-queue:${id}`;
+
+function readQueue(id: string): PendingAnswer[] {
+  try {
+    const raw = localStorage.getItem(queueKey(id));
+    return raw ? (JSON.parse(raw) as PendingAnswer[]) : [];
+  } catch {
+    return [];
+  }
+}
+
+function writeQueue(id: string, pending: PendingAnswer[]) {
+  try {
+    if (pending.length === 0) localStorage.removeItem(queueKey(id));
+    else localStorage.setItem(queueKey(id), JSON.stringify(pending));
+  } catch {
+    // Storage full or disabled: the queue still lives in memory for this page.
+  }
+}
+
+function answerPayload(a: PendingAnswer) {
+  return {
+    clientId: a.clientId,
+    stepId: a.stepId,
+    ...(a.kind === 'measure' ? { text: a.text ?? '', ...(a.unit ? { unit: a.unit } : {}) } : {}),
+    ...(a.kind === 'inspect' ? { choice: a.choice } : {}),
+    ...(a.kind === 'action' ? { confirmed: true } : {}),
+  };
+}
+
+export function Wizard({ actions, diagnosisId, callId, version, initialView, displayUnits, transformerVa }: WizardProps) {
+  const { data: view, mutate } = useDiagnosis(diagnosisId, initialView);
+  const mutateRef = useRef(mutate);
+  mutateRef.current = mutate;
+
+  const machine = useMemo(
+    () =>
+      wizardMachine.provide({
+        actors: {
+          saveAnswer: fromPromise<SaveOutcome, { diagnosisId: string; answer: PendingAnswer }>(async ({ input }) => {
+            if (typeof navigator !== 'undefined' && navigator.onLine === false) throw new Error('The tablet is offline');
+            const result = await actions.submitAnswer({ diagnosisId: input.diagnosisId, answer: answerPayload(input.answer) });
+            if (result.ok) return result.data.type === 'saved' ? { type: 'saved', answer: result.data.result.answer } : result.data;
+            // A refusal with field errors is about the answer itself; anything else is worth another try.
+            if (result.fieldErrors) return { type: 'refused', message: result.message };
+            throw new Error(result.message);
+          }),
+          undoAnswer: fromPromise<WizardView, { diagnosisId: string }>(async ({ input }) => {
+            const result = await actions.undoAnswer({ diagnosisId: input.diagnosisId });
+            if (!result.ok) throw new Error(result.message);
+            return result.data;
+          }),
+          loadView: fromPromise<WizardView, { diagnosisId: string }>(async () => {
+            const fresh = await mutateRef.current();
+            if (!fresh) throw new Error('The diagnosis could not be loaded');
+            return fresh;
+          }),
+        },
+        actions: {
+          persistQueue: (_, params) => writeQueue(diagnosisId, params.pending),
+          revalidate: () => {
+            void mutateRef.current();
+          },
+        },
+      }),
+    // The page's actions are stable server references.
+    [diagnosisId],
+  );
+
+  const [snapshot, send] = useMachine(machine, { input: { diagnosisId, version, view: initialView } });
+  const ctx = snapshot.context;
+
+  useEffect(() => {
+    const stored = readQueue(diagnosisId);
+    if (stored.length > 0) send({ type: 'queue.restore', pending: stored });
+    if (!navigator.onLine) send({ type: 'network.offline' });
+    const online = () => send({ type: 'network.online' });
+    const offline = () => send({ type: 'network.offline' });
+    window.addEventListener('online', online);
+    window.addEventListener('offline', offline);
+    return () => {
+      window.removeEventListener('online', online);
+      window.removeEventListener('offline', offline);
+    };
+  }, [diagnosisId, send]);
+
+  useEffect(() => {
+    if (view) send({ type: 'view.loaded', view });
+  }, [view, send]);
+
+  const busy = !snapshot.hasTag('synced');
+  const status = syncStatus(ctx, busy);
+  const items = pathItems(ctx);
+  const step = getStep(version, ctx.stepId);
+  const refusal = ctx.refusal && ctx.refusal.stepId === ctx.stepId ? ctx.refusal : null;
+
+  // Focus moves to the new step's heading, so a screen reader starts at the top of it.
+  const headingKey = `${ctx.stepId}:${items.length}`;
+  const firstRender = useRef(true);
+  useEffect(() => {
+    if (firstRender.current) {
+      firstRender.current = false;
+      return;
+    }
+    document.querySelector<HTMLElement>('[data-step-heading]')?.focus();
+  }, [headingKey]);
+
+  const finding = ctx.findingId ? (getStep(version, ctx.findingId) as FindingStep | undefined) : undefined;
+  const serverAgrees = view && ctx.pending.length === 0 && view.finding?.id === ctx.findingId;
+
+  return (
+    <div className="mx-auto max-w-3xl">
+      <div className="mb-4 flex flex-wrap items-center justify-between gap-3">
+        <p className="text-sm text-muted">
+          {initialView.tree.title} · v{initialView.tree.version}
+          {!finding && <> · step {items.length + 1}</>}
+        </p>
+        <SyncStatus kind={status.kind} text={status.text} onRetry={() => send({ type: 'retry.now' })} />
+      </div>
+
+      <div aria-live="assertive" className="empty:hidden mb-4 space-y-2">
+        {refusal && (
+          <p className="rounded-lg border-2 border-ink bg-sunken px-4 py-3 font-semibold" data-testid="refusal">
+            <span aria-hidden>✗ </span>Not saved: {refusal.message}
+          </p>
+        )}
+        {ctx.notice && (
+          <p className="flex items-start justify-between gap-3 rounded-lg border-2 border-ink bg-sunken px-4 py-3" data-testid="notice">
+            <span>{ctx.notice}</span>
+            <button type="button" className="btn-quiet min-h-0 px-2 py-1 text-sm underline" onClick={() => send({ type: 'notice.dismiss' })}>
+              Dismiss
+            </button>
+          </p>
+        )}
+      </div>
+
+      {finding ? (
+        <FindingScreen
+          finding={finding}
+          version={version}
+          callId={callId}
+          contradictions={serverAgrees ? view.contradictions : null}
+          needsSignOff={view?.startedBy.role === 'apprentice' && !view.signedOff}
+          signedOff={view?.signedOff ?? null}
+        />
+      ) : step ? (
+        <StepScreen
+          key={`${step.id}:${items.length}`}
+          step={step as MeasureStep | InspectStep | ActionStep}
+          energy={ctx.energy}
+          displayUnits={displayUnits}
+          transformerVa={transformerVa}
+          initial={refusal ? { text: refusal.text ?? '', unit: refusal.unit ?? '' } : null}
+          onAnswer={(answer) => send({ type: 'answer.submit', answer: { ...answer, clientId: crypto.randomUUID() } })}
+        />
+      ) : (
+        <p>This step is not part of the tree version; reload the page.</p>
+      )}
+
+      <div className="mt-6 space-y-4">
+        {finding && <EnergyLine energy={ctx.energy} />}
+        <PathSoFar items={items} />
+        <UndoLast
+          lastTitle={items.at(-1)?.stepTitle ?? null}
+          disabled={!snapshot.can({ type: 'answer.undo' })}
+          onUndo={() => send({ type: 'answer.undo' })}
+        />
+      </div>
+    </div>
+  );
+}
+
+function EnergyLine({ energy }: { energy: 'energized' | 'locked-out' }) {
+  return (
+    <div className="flex items-center gap-3">
+      <span className="text-base text-muted">The unit is now</span>
+      <EnergyBadge energy={energy} />
+    </div>
+  );
+}
+
+interface StepScreenProps {
+  step: MeasureStep | InspectStep | ActionStep;
+  energy: 'energized' | 'locked-out';
+  displayUnits: UnitSystem;
+  transformerVa: number | null;
+  initial: ReadingValue | null;
+  onAnswer: (answer: { stepId: string; text?: string; unit?: string; value?: number; choice?: string; confirmed?: boolean }) => void;
+}
+
+function StepScreen({ step, energy, displayUnits, transformerVa, initial, onAnswer }: StepScreenProps) {
+  const procedure = step.id.startsWith('lock-out--') || step.id.startsWith('re-energize--');
+  return (
+    <div className="space-y-5">
+      <div className="flex flex-wrap items-center justify-between gap-3">
+        <h1 className="page-title" tabIndex={-1} data-step-heading>
+          {step.title}
+        </h1>
+        <EnergyBadge energy={energy} />
+      </div>
+      {procedure && (
+        <p className="text-sm font-semibold uppercase tracking-wide text-muted">{step.id.startsWith('lock-out--') ? 'Lock-out procedure' : 'Re-energize procedure'}</p>
+      )}
+      <CautionList cautions={step.cautions} role={step.cautions.some((c) => c.signal === 'DANGER') ? 'alert' : 'note'} />
+      {step.instruction && <p className="text-lg leading-relaxed">{step.instruction}</p>}
+      {step.kind === 'measure' && <MeasureBody step={step} displayUnits={displayUnits} transformerVa={transformerVa} initial={initial} onAnswer={onAnswer} />}
+      {step.kind === 'inspect' && <InspectBody step={step} onAnswer={onAnswer} />}
+      {step.kind === 'action' && (
+        <ProcedureChecklist items={step.checklist} confirmLabel="Confirm" onConfirm={() => onAnswer({ stepId: step.id, confirmed: true })} />
+      )}
+      {TIMELINE_STEPS.has(step.id) && <IgnitionTimeline />}
+      <WhyThisStep why={step.why} />
+    </div>
+  );
+}
+
+function MeasureBody({
+  step,
+  displayUnits,
+  transformerVa,
+  initial,
+  onAnswer,
+}: {
+  step: MeasureStep;
+  displayUnits: UnitSystem;
+  transformerVa: number | null;
+  initial: ReadingValue | null;
+  onAnswer: StepScreenProps['onAnswer'];
+}) {
+  const [value, setValue] = useState<ReadingValue>(() => ({
+    text: initial?.text ?? '',
+    unit: initial?.unit || displayUnitFor(step.quantity, displayUnits),
+  }));
+  const parsed = value.text.trim() === '' ? null : parseEntry(step, value);
+  const save = () => {
+    if (parsed?.ok) onAnswer({ stepId: step.id, text: value.text.trim(), unit: value.unit, value: parsed.value });
+  };
+  return (
+    <>
+      <TestPoints step={step} />
+      <ReadingEntry step={step} value={value} onChange={setValue} onSubmit={save} />
+      {step.bandsNote && <p className="text-sm text-muted">{step.bandsNote}</p>}
+      <ElectricalAids aids={step.aids} transformerVa={transformerVa} />
+      <ActionBar hint={parsed?.ok ? undefined : 'Enter a reading to save it.'}>
+        <button type="button" className="btn-primary min-w-[12rem] text-lg" disabled={!parsed?.ok} onClick={save}>
+          Save reading
+        </button>
+      </ActionBar>
+    </>
+  );
+}
+
+function InspectBody({ step, onAnswer }: { step: InspectStep; onAnswer: StepScreenProps['onAnswer'] }) {
+  const [choice, setChoice] = useState<string | null>(null);
+  return (
+    <>
+      <div role="radiogroup" aria-label={step.title} className="grid gap-3 sm:grid-cols-2">
+        {step.choices.map((c) => {
+          const checked = choice === c.value;
+          return (
+            <button
+              key={c.value}
+              type="button"
+              role="radio"
+              aria-checked={checked}
+              onClick={() => setChoice(c.value)}
+              className={clsx(
+                'flex min-h-[4.5rem] items-center gap-3 rounded-xl border-2 px-4 py-3 text-left text-lg font-semibold',
+                checked ? 'border-ink bg-ink text-surface' : 'border-line bg-raised text-ink hover:border-ink',
+              )}
+            >
+              <span aria-hidden className="flex h-7 w-7 shrink-0 items-center justify-center rounded-full border-2 border-current">
+                {checked ? '●' : ''}
+              </span>
+              {c.label}
+            </button>
+          );
+        })}
+      </div>
+      <ActionBar hint={choice ? undefined : 'Pick what you see.'}>
+        <button type="button" className="btn-primary min-w-[12rem] text-lg" disabled={!choice} onClick={() => choice && onAnswer({ stepId: step.id, choice })}>
+          Choose
+        </button>
+      </ActionBar>
+    </>
+  );
+}
