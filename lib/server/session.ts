@@ -33,5 +33,18 @@ export function sessionOptions(): SessionOptions {
 }
 
 export async function getSession() {
-  return getIronSession<SessionData>(await cookies(), sessionOptions());
+  const store = await cookies();
+  const options = sessionOptions();
+  try {
+    return await getIronSession<SessionData>(store, options);
+  } catch {
+    // iron-session throws on a cookie that is not one of our seals (tampered, truncated, or set by
+    // another app on this host); that is no session, not a server error. Saving or destroying the
+    // fresh session still writes the real cookie and so replaces the bad one.
+    const withoutBadCookie = {
+      get: (name: string) => (name === options.cookieName ? undefined : store.get(name)),
+      set: store.set.bind(store) as typeof store.set,
+    };
+    return getIronSession<SessionData>(withoutBadCookie, options);
+  }
 }
