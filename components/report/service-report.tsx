@@ -1,4 +1,4 @@
-import { CautionNotice } from '@/components/calls/call-caution';
+import { Caution } from '@/components/ui/caution';
 import { DIAGNOSIS_LABELS, formatDate, formatDateTime, formatTime, FUEL_LABELS, IGNITION_LABELS, STATUS_LABELS, SUPPLY_LABELS } from '@/components/calls/format';
 import { Verdict } from '@/components/calls/readings-table';
 import type { CallReport } from '@/lib/server/calls';
@@ -215,7 +215,7 @@ export function ServiceReport({ report }: { report: CallReport }) {
           </h2>
           <div className="space-y-2">
             {cautions.map((c) => (
-              <CautionNotice key={`${c.signal}|${c.text}`} signal={c.signal} text={c.text} compact />
+              <Caution key={`${c.signal}|${c.text}`} signal={c.signal} text={c.text} className="print:break-inside-avoid" />
             ))}
           </div>
         </section>

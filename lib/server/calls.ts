@@ -7,7 +7,7 @@ import { getTreeVersion, listTrees, type TreeVersionRecord } from '@/db/trees';
 import { getUnit, listUnits, listUnitReadings, type Unit } from '@/db/units';
 import { getDiagnosisView } from '@/lib/server/diagnoses';
 import { LOCK_OUT_PREFIX, RE_ENERGIZE_PREFIX } from '@/lib/trees/graph';
-import type { FindingStep } from '@/lib/trees/schema';
+import type { Caution, FindingStep } from '@/lib/trees/schema';
 import { getStep } from '@/machines/diagnosis-machine';
 import { AppError } from '@/lib/errors';
 import { parseReading } from '@/lib/units';
@@ -211,7 +211,7 @@ export type CallPage = Awaited<ReturnType<typeof getCallPage>>;
 export async function getCallReport({ viewer, id }: { viewer: Viewer; id: string }) {
   const { call, unit, site, diagnoses } = await getCallPage({ viewer, id });
   const company = await getCompany({ id: viewer.companyId });
-  const cautions = new Map<string, { signal: string; text: string }>();
+  const cautions = new Map<string, Caution>();
   const paths = [];
   for (const d of diagnoses) {
     const view = await getDiagnosisView({ viewer, id: d.id });
