@@ -1,4 +1,5 @@
 import Link from 'next/link';
+import type { ReactNode } from 'react';
 import type { FindingStep, TreeVersion } from '@/lib/trees/schema';
 import { formatReading } from '@/lib/units';
 import { getStep } from '@/machines/diagnosis-machine';
@@ -30,12 +31,13 @@ export interface FindingScreenProps {
   contradictions: ContradictionView[] | null;
   needsSignOff: boolean;
   signedOff: { by: string | null; at: string | Date | null } | null;
+  footer?: ReactNode;
 }
 
-export function FindingScreen({ finding, version, callId, contradictions, needsSignOff, signedOff }: FindingScreenProps) {
+export function FindingScreen({ finding, version, callId, contradictions, needsSignOff, signedOff, footer }: FindingScreenProps) {
   const disagree = contradictions && contradictions.length > 0;
   return (
-    <div className="space-y-5" data-testid="finding">
+    <div className="flex flex-col gap-5" data-testid="finding">
       <p className="text-sm font-semibold uppercase tracking-wide text-muted">Finding</p>
       {disagree && (
         <section role="alert" aria-labelledby="contradictions-h" className="rounded-xl border-4 border-double border-ink bg-sunken p-4" data-testid="contradictions">
@@ -54,7 +56,7 @@ export function FindingScreen({ finding, version, callId, contradictions, needsS
                   <p>
                     Read <span className="font-mono font-semibold">{shown}</span>; this finding expects <span className="font-mono">{expectedText(version, c)}</span>.
                   </p>
-                  <p className="text-sm text-muted">{c.reason}</p>
+                  <p className="text-sm text-muted">The finding assumes: {c.reason.charAt(0).toLowerCase() + c.reason.slice(1)}.</p>
                 </li>
               );
             })}
@@ -111,6 +113,7 @@ export function FindingScreen({ finding, version, callId, contradictions, needsS
         </div>
       </section>
       {contradictions === null && <p className="text-base text-muted">Checking this finding against the readings once every answer is saved…</p>}
+      {footer}
       <ActionBar hint={disagree ? 'Readings disagree — check them first.' : undefined}>
         <Link href={`/calls/${callId}`} className="btn-primary min-w-[12rem] text-lg">
           {disagree ? 'Accept anyway — go to the call' : 'Accept finding — go to the call'}

@@ -150,6 +150,13 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
   }, [headingKey]);
 
   const finding = ctx.findingId ? (getStep(version, ctx.findingId) as FindingStep | undefined) : undefined;
+  const footer = (
+    <div className="space-y-4">
+      {finding && <EnergyLine energy={ctx.energy} />}
+      <PathSoFar items={items} />
+      <UndoLast lastTitle={items.at(-1)?.stepTitle ?? null} disabled={!snapshot.can({ type: 'answer.undo' })} onUndo={() => send({ type: 'answer.undo' })} />
+    </div>
+  );
   const serverAgrees = view && ctx.pending.length === 0 && view.finding?.id === ctx.findingId;
 
   return (
@@ -186,6 +193,7 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
           contradictions={serverAgrees ? view.contradictions : null}
           needsSignOff={view?.startedBy.role === 'apprentice' && !view.signedOff}
           signedOff={view?.signedOff ?? null}
+          footer={footer}
         />
       ) : step ? (
         <StepScreen
@@ -194,6 +202,7 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
           energy={ctx.energy}
           displayUnits={displayUnits}
           transformerVa={transformerVa}
+          footer={footer}
           initial={refusal ? { text: refusal.text ?? '', unit: refusal.unit ?? '' } : null}
           onAnswer={(answer) => send({ type: 'answer.submit', answer: { ...answer, clientId: crypto.randomUUID() } })}
         />
@@ -201,15 +210,6 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
         <p>This step is not part of the tree version; reload the page.</p>
       )}
 
-      <div className="mt-6 space-y-4">
-        {finding && <EnergyLine energy={ctx.energy} />}
-        <PathSoFar items={items} />
-        <UndoLast
-          lastTitle={items.at(-1)?.stepTitle ?? null}
-          disabled={!snapshot.can({ type: 'answer.undo' })}
-          onUndo={() => send({ type: 'answer.undo' })}
-        />
-      </div>
     </div>
   );
 }
@@ -229,13 +229,14 @@ interface StepScreenProps {
   displayUnits: UnitSystem;
   transformerVa: number | null;
   initial: ReadingValue | null;
+  footer: React.ReactNode;
   onAnswer: (answer: { stepId: string; text?: string; unit?: string; value?: number; choice?: string; confirmed?: boolean }) => void;
 }
 
-function StepScreen({ step, energy, displayUnits, transformerVa, initial, onAnswer }: StepScreenProps) {
+function StepScreen({ step, energy, displayUnits, transformerVa, initial, footer, onAnswer }: StepScreenProps) {
   const procedure = step.id.startsWith('lock-out--') || step.id.startsWith('re-energize--');
   return (
-    <div className="space-y-5">
+    <div className="flex flex-col gap-5">
       <div className="flex flex-wrap items-center justify-between gap-3">
         <h1 className="page-title" tabIndex={-1} data-step-heading>
           {step.title}
@@ -254,6 +255,7 @@ function StepScreen({ step, energy, displayUnits, transformerVa, initial, onAnsw
       )}
       {TIMELINE_STEPS.has(step.id) && <IgnitionTimeline />}
       <WhyThisStep why={step.why} />
+      {footer}
     </div>
   );
 }
