@@ -1,8 +1,12 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
+import { CallStatusBadge } from '@/components/calls/call-status';
+import { formatDate } from '@/components/calls/format';
 import { FormMessage } from '@/components/ui/field';
-import { ROLE_LABELS, type Role } from '@/lib/roles';
-import { requirePageUser } from '@/lib/server/guard';
+import { FIELD_ROLES, ROLE_LABELS, type Role } from '@/lib/roles';
+import { findCalls } from '@/lib/server/calls';
+import { requirePageUser, type CurrentUser } from '@/lib/server/guard';
+import { viewerOf } from '@/lib/server/viewer';
 
 export const metadata: Metadata = { title: 'Home' };
 
@@ -48,6 +52,7 @@ export default async function HomePage({ searchParams }: { searchParams: Promise
         <h1 className="page-title">Good to see you, {user.name.split(' ')[0]}</h1>
         <p className="text-muted">{user.companyName}</p>
       </div>
+      {FIELD_ROLES.includes(user.role) && <OpenCalls user={user} />}
       <ul className="grid gap-4 sm:grid-cols-2">
         {TILES[user.role].map((tile) => (
           <li key={tile.href + tile.title}>
@@ -62,5 +67,53 @@ export default async function HomePage({ searchParams }: { searchParams: Promise
         ))}
       </ul>
     </div>
+  );
+}
+
+/** The calls still to work: one's own for the field, the whole company's count for leads and admins. */
+async function OpenCalls({ user }: { user: CurrentUser }) {
+  const supervisor = user.role === 'lead' || user.role === 'admin';
+  const calls = (await findCalls({ viewer: viewerOf(user), technician: supervisor ? undefined : 'me' })).filter(
+    (c) => c.status !== 'closed' && c.status !== 'referred',
+  );
+  const unassigned = calls.filter((c) => !c.technicianId).length;
+  const shown = calls.slice(0, 3);
+  return (
+    <section aria-labelledby="open-calls" className="card space-y-3">
+      <div className="flex flex-wrap items-baseline justify-between gap-2">
+        <h2 id="open-calls" className="text-lg font-bold">
+          {supervisor ? 'Open calls in the company' : 'My open calls'}: <span className="font-mono">{calls.length}</span>
+        </h2>
+        {supervisor && unassigned > 0 && (
+          <p className="text-muted">
+            {unassigned} not assigned yet
+          </p>
+        )}
+      </div>
+      {shown.length === 0 ? (
+        <p className="text-muted">Nothing open. {user.role === 'apprentice' ? '' : 'Start a call from the Service calls page.'}</p>
+      ) : (
+        <ul className="space-y-2">
+          {shown.map((c) => (
+            <li key={c.id}>
+              <Link href={`/calls/${c.id}`} className="flex min-h-touch flex-wrap items-center justify-between gap-2 rounded-lg border border-line bg-surface px-3 py-2 hover:border-copper">
+                <span>
+                  <span className="font-semibold">{c.siteName}</span> · {c.unitLabel}
+                  <span className="block text-sm text-muted" suppressHydrationWarning>
+                    Opened {formatDate(c.openedAt)}{supervisor ? ` · ${c.technicianName ?? 'unassigned'}` : ''}
+                  </span>
+                </span>
+                <CallStatusBadge status={c.status} />
+              </Link>
+            </li>
+          ))}
+        </ul>
+      )}
+      {calls.length > shown.length && (
+        <Link href="/calls" className="text-sm font-semibold underline underline-offset-4">
+          All {calls.length} open calls
+        </Link>
+      )}
+    </section>
   );
 }

@@ -110,8 +110,9 @@ export function NewCallForm({ sites: initialSites, assignees, me, preselectUnitI
               {site.units.length === 0 && <p className="text-muted">No units at this site yet: add one below.</p>}
               <div className="grid gap-2 sm:grid-cols-2">
                 {site.units.map((u) => (
-                  <label key={u.id} className="block cursor-pointer">
+                  <label key={u.id} className="relative block cursor-pointer">
                     <input type="radio" value={u.id} className="peer sr-only" {...register('unitId')} />
+                    <Tick />
                     <span className="flex min-h-touch flex-col rounded-lg border-2 border-line bg-raised px-4 py-2 peer-checked:border-copper peer-checked:bg-copper-soft peer-focus-visible:outline peer-focus-visible:outline-[3px] peer-focus-visible:outline-copper">
                       <span className="font-semibold">{u.label}</span>
                       <span className="text-sm text-muted">
@@ -220,8 +221,9 @@ function SitePicker({
         {shown.length === 0 && <p className="text-muted">No site matches “{query}”. Add it below.</p>}
         <div className="grid max-h-80 gap-2 overflow-y-auto sm:grid-cols-2">
           {shown.map((s) => (
-            <label key={s.id} className="block cursor-pointer">
+            <label key={s.id} className="relative block cursor-pointer">
               <input type="radio" name="site" value={s.id} checked={selected === s.id} onChange={() => onSelect(s.id)} className="peer sr-only" />
+              <Tick />
               <span className="flex min-h-touch flex-col rounded-lg border-2 border-line bg-raised px-4 py-2 peer-checked:border-copper peer-checked:bg-copper-soft peer-focus-visible:outline peer-focus-visible:outline-[3px] peer-focus-visible:outline-copper">
                 <span className="font-semibold">{s.name}</span>
                 <span className="text-sm text-muted">{s.address}</span>
@@ -370,5 +372,14 @@ function NewUnit({ siteId, onCreated, createUnit }: { siteId: string; onCreated:
         </button>
       </div>
     </div>
+  );
+}
+
+/** The chosen card's mark, so the choice does not rest on its colour alone. */
+function Tick() {
+  return (
+    <span aria-hidden className="absolute right-3 top-2 hidden font-mono font-bold peer-checked:inline">
+      ✓
+    </span>
   );
 }

@@ -51,7 +51,7 @@ export function ReadingsTable({ readings, caption = 'Readings' }: { readings: Re
         <thead className="border-b border-line text-sm text-muted">
           <tr>
             <th scope="col" className="w-[38%] py-2 pr-3">Step and test points</th>
-            <th scope="col" className="w-[16%] py-2 pr-3">Value</th>
+            <th scope="col" className="w-[7.5rem] py-2 pr-3">Value</th>
             <th scope="col" className="py-2 pr-3">Band</th>
             <th scope="col" className="w-[8.5rem] py-2">Time</th>
           </tr>
@@ -63,7 +63,7 @@ export function ReadingsTable({ readings, caption = 'Readings' }: { readings: Re
                 <span className="font-semibold">{r.stepTitle}</span>
                 {r.points && <span className="block font-mono text-sm text-muted">{r.points[0]} ↔ {r.points[1]}</span>}
               </td>
-              <td className="py-2 pr-3">
+              <td className="whitespace-nowrap py-2 pr-3">
                 <Value r={r} />
               </td>
               <td className="py-2 pr-3">

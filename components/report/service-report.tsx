@@ -127,7 +127,7 @@ export function ServiceReport({ report }: { report: CallReport }) {
       {diagnoses.map((d, i) => (
         <section key={d.id} aria-labelledby={`r-d-${d.id}`} className="space-y-3">
           <h2 id={`r-d-${d.id}`} className="text-lg font-bold">
-            Diagnosis {diagnoses.length > 1 ? i + 1 : ''}: {d.finding?.title ?? DIAGNOSIS_LABELS[d.status]}
+            {diagnoses.length > 1 ? `Diagnosis ${i + 1}` : 'Diagnosis'}: {d.finding?.title ?? DIAGNOSIS_LABELS[d.status]}
           </h2>
           <p className="text-sm text-muted print:text-black">
             {d.treeTitle}, version {d.treeVersion} · by {d.startedBy ?? '—'}
@@ -193,12 +193,14 @@ export function ServiceReport({ report }: { report: CallReport }) {
             {v.checks.length > 0 && (
               <ul className="space-y-0.5">
                 {v.checks.map((c) => (
-                  <li key={c.text}>
-                    <span aria-hidden className="font-mono">
-                      {c.done ? '☑ ' : '☐ '}
+                  <li key={c.text} className="flex gap-2">
+                    <span className="w-20 shrink-0 font-semibold">
+                      <span aria-hidden className="font-mono">
+                        {c.done ? '✓ ' : '✗ '}
+                      </span>
+                      {c.done ? 'Done' : 'Not done'}
                     </span>
-                    <span className="sr-only">{c.done ? 'Done: ' : 'Not done: '}</span>
-                    {c.text}
+                    <span>{c.text}</span>
                   </li>
                 ))}
               </ul>

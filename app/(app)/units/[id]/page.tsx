@@ -100,22 +100,36 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
         <h2 id="unit-readings-heading" className="text-xl font-bold">
           Readings
         </h2>
-        <ReadingsTable
-          caption="Readings taken on this unit"
-          readings={readings
-            .map((r) => ({
-              id: r.answerId,
-              stepTitle: r.stepTitle ?? r.stepId,
-              points: null,
-              text: r.text,
-              value: r.value,
-              unit: r.unit,
-              band: r.bandLabel,
-              verdict: r.verdict,
-              at: r.takenAt,
-            }))
-            .reverse()}
-        />
+        {readings.length === 0 && <p className="text-muted">No readings on this unit yet.</p>}
+        {visits
+          .filter((v) => readings.some((r) => r.callId === v.id))
+          .map((v, i) => {
+            const ofVisit = readings.filter((r) => r.callId === v.id).reverse();
+            return (
+              <details key={v.id} open={i === 0} className="rounded-lg border border-line">
+                <summary className="min-h-touch cursor-pointer content-center px-3 font-semibold" suppressHydrationWarning>
+                  {formatDate(v.openedAt)} · {ofVisit.length} {ofVisit.length === 1 ? 'reading' : 'readings'}
+                  <span className="font-normal text-muted"> · {v.findings.join('; ') || 'no finding'}</span>
+                </summary>
+                <div className="border-t border-line p-3">
+                  <ReadingsTable
+                    caption={`Readings of the visit on ${formatDate(v.openedAt)}`}
+                    readings={ofVisit.map((r) => ({
+                      id: r.answerId,
+                      stepTitle: r.stepTitle ?? r.stepId,
+                      points: null,
+                      text: r.text,
+                      value: r.value,
+                      unit: r.unit,
+                      band: r.bandLabel,
+                      verdict: r.verdict,
+                      at: r.takenAt,
+                    }))}
+                  />
+                </div>
+              </details>
+            );
+          })}
       </section>
     </div>
   );
