@@ -48,7 +48,7 @@ export function UsersAdmin({ users, currentUserId, createUser, updateUser }: Pro
   return (
     <div className="space-y-8">
       <FormMessage message={status?.text} tone={status?.tone} />
-      <section aria-labelledby="users-heading" className="card overflow-x-auto p-0">
+      <section aria-labelledby="users-heading" className="card relative overflow-x-auto p-0">
         <h2 id="users-heading" className="sr-only">
           People
         </h2>
