@@ -10,7 +10,13 @@ export function AppNav({ items, orientation }: { items: Pick<NavItem, 'href' | '
   const isActive = (href: string) => (href === '/' ? pathname === '/' : pathname === href || pathname.startsWith(`${href}/`));
   return (
     <nav aria-label="Main">
-      <ul className={clsx('flex gap-1', orientation === 'column' ? 'flex-col' : 'overflow-x-auto')}>
+      <ul
+        className={clsx(
+          'flex gap-1',
+          // A fading right edge tells a phone user that the row scrolls.
+          orientation === 'column' ? 'flex-col' : 'overflow-x-auto pr-6 [mask-image:linear-gradient(to_right,black_calc(100%-2rem),transparent)]',
+        )}
+      >
         {items.map((item) => (
           <li key={item.href} className="shrink-0">
             <Link
