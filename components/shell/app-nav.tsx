@@ -14,7 +14,7 @@ export function AppNav({ items, orientation }: { items: Pick<NavItem, 'href' | '
         className={clsx(
           'flex gap-1',
           // A fading right edge tells a phone user that the row scrolls.
-          orientation === 'column' ? 'flex-col' : 'overflow-x-auto pr-6 [mask-image:linear-gradient(to_right,black_calc(100%-2rem),transparent)]',
+          orientation === 'column' ? 'flex-col' : 'overflow-x-auto pr-10 [mask-image:linear-gradient(to_right,black_calc(100%-2rem),transparent)]',
         )}
       >
         {items.map((item) => (
