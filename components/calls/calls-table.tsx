@@ -148,7 +148,7 @@ export function CallsTable({ initialCalls, initialFilter = {}, technicianChoice,
           {data ? `${count} ${count === 1 ? 'call' : 'calls'}${filtered ? ' match' : ''}` : ''}
           {isValidating && data ? ' · refreshing…' : ''}
         </p>
-        <label className="flex items-center gap-2 text-sm lg:hidden">
+        <label className="flex items-center gap-2 text-sm xl:hidden">
           <span className="font-semibold">Sort by</span>
           <Select
             className="w-auto"
@@ -199,14 +199,14 @@ export function CallsTable({ initialCalls, initialFilter = {}, technicianChoice,
 
       {count > 0 && (
         <>
-          <table className="hidden w-full table-fixed border-separate border-spacing-0 overflow-hidden rounded-xl border border-line bg-raised text-left lg:table">
+          <table className="hidden w-full table-fixed border-separate border-spacing-0 overflow-hidden rounded-xl border border-line bg-raised text-left xl:table">
             <caption className="sr-only">Service calls, sortable by column</caption>
             <colgroup>
-              <col className="w-[9rem]" />
-              <col className="w-[22%]" />
-              <col />
               <col className="w-[8.5rem]" />
-              <col className="w-[9.5rem]" />
+              <col className="w-[24%]" />
+              <col />
+              <col className="w-[9rem]" />
+              <col className="w-[9rem]" />
             </colgroup>
             <thead className="text-sm">
               {table.getHeaderGroups().map((group) => (
@@ -249,7 +249,7 @@ export function CallsTable({ initialCalls, initialFilter = {}, technicianChoice,
             </tbody>
           </table>
 
-          <ul className="grid gap-3 md:grid-cols-2 lg:hidden" aria-label="Service calls">
+          <ul className="grid gap-3 md:grid-cols-2 xl:hidden" aria-label="Service calls">
             {rows.map(({ original: c }) => (
               <li key={c.id}>
                 <Link href={`/calls/${c.id}`} className={clsx('card flex h-full flex-col gap-2 p-4 hover:border-copper')}>

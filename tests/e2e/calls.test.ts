@@ -285,7 +285,7 @@ describe('call page, report and unit history', () => {
     // The path crosses from live checks to handling the rod, so the lock-out is on the report with its checklist.
     expect(text).toContain('Lock-out: Lock out and verify');
     expect(text).toContain('Absence of voltage verified at the unit');
-    expect(text).toMatch(/Flame signal \(DC microamps\).*▼ Below.*Low flame signal/);
+    expect(text).toMatch(/Flame signal \(DC microamps\).*1\.05 µA ▼\s?Below\s?— Low flame signal/);
     expect(text).toContain("This report does not replace local codes, the equipment manufacturer's instructions or licensed practice.");
     expect(await report.article.getByRole('note').count()).toBeGreaterThan(0);
     expect(await page.getByRole('button', { name: 'Print' }).count()).toBe(1);

@@ -70,7 +70,7 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
           <h2 className="label">Technician</h2>
           <p className="text-lg">
             {call.technicianName ?? 'Not assigned'}
-            {call.technicianRole && <span className="text-base text-muted"> · {ROLE_LABELS[call.technicianRole as Role]}</span>}
+            {call.technicianRole && <span className="block text-base text-muted">{ROLE_LABELS[call.technicianRole as Role]}</span>}
           </p>
         </div>
       </section>
