@@ -82,7 +82,7 @@ export function ServiceReport({ report }: { report: CallReport }) {
           <p className="text-xl font-bold">{company.name}</p>
           <p className="text-muted print:text-black">{company.officeEmail}</p>
         </div>
-        <div className="text-right">
+        <div className="sm:text-right print:text-right">
           <h1 className="text-2xl font-bold">Service report</h1>
           <p className="text-muted print:text-black">{formatDate(call.closedAt ?? call.openedAt)}</p>
         </div>
