@@ -160,7 +160,7 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
   const serverAgrees = view && ctx.pending.length === 0 && view.finding?.id === ctx.findingId;
 
   return (
-    <div className="mx-auto max-w-3xl">
+    <div className="mx-auto max-w-3xl pb-28">
       <div className="mb-4 flex flex-wrap items-center justify-between gap-3">
         <p className="text-sm text-muted">
           {initialView.tree.title} · v{initialView.tree.version}
