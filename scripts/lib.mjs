@@ -99,7 +99,9 @@ export async function startCluster({ bin, dir, port, throwaway = false }) {
   if (await portAnswers(port) && !(await clusterIsOurs(bin, data))) {
     throw new Error(`Port ${port} is taken by another program. Set PG_PORT to a free port.`);
   }
-  if (!(await clusterIsOurs(bin, data))) {
+  // A cluster that was already running (another `npm start`) is used but left running on stop.
+  const startedHere = !(await clusterIsOurs(bin, data));
+  if (startedHere) {
     const opts = [`-k ${path.join(dir, 'sock')}`, `-p ${port}`, `-h 127.0.0.1`];
     if (throwaway) opts.push('-c fsync=off -c synchronous_commit=off -c full_page_writes=off');
     const res = pg(bin, 'pg_ctl', ['-D', data, '-l', path.join(dir, 'server.log'), '-w', '-t', '60', '-o', opts.join(' '), 'start']);
@@ -110,8 +112,9 @@ export async function startCluster({ bin, dir, port, throwaway = false }) {
   }
   return {
     port,
+    startedHere,
     stop() {
-      pg(bin, 'pg_ctl', ['-D', data, '-m', 'fast', '-w', 'stop']);
+      if (startedHere) pg(bin, 'pg_ctl', ['-D', data, '-m', 'fast', '-w', 'stop']);
     },
   };
 }

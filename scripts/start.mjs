@@ -5,7 +5,7 @@
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
 import {
-  ensureDatabase, ensureDependencies, ensureDevSecret, ensurePostgres, knex, log, root, run,
+  ensureDatabase, ensureDependencies, ensureDevSecret, ensurePostgres, knex, log, portAnswers, root, run,
   spawnChild, startCluster, waitForHttp,
 } from './lib.mjs';
 
@@ -54,6 +54,11 @@ function buildIfNeeded() {
 }
 
 async function main() {
+  // A second `npm start` while the first serves must not rebuild under it or stop its database.
+  if (await portAnswers(port, host)) {
+    console.error(`\nSomething already answers on http://${host}:${port}: is Proving Ground already running? Stop it with Ctrl-C in its terminal, or set PORT.\n`);
+    process.exit(1);
+  }
   ensureDependencies();
   const bin = ensurePostgres();
   const cluster = await startCluster({ bin, dir: path.join(root, '.data', 'postgres'), port: pgPort });
@@ -65,7 +70,7 @@ async function main() {
     log('Stopping…');
     if (app && app.exitCode === null) app.kill('SIGTERM');
     cluster.stop();
-    log('Stopped the app and PostgreSQL.');
+    log(cluster.startedHere ? 'Stopped the app and PostgreSQL.' : 'Stopped the app (PostgreSQL was already running and is left running).');
     process.exit(code);
   };
   process.on('SIGINT', () => stop(0));
