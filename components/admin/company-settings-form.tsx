@@ -36,7 +36,7 @@ export function CompanySettingsForm({ initial, save }: { initial: Output; save: 
 
   return (
     <form onSubmit={handleSubmit(onSubmit)} noValidate className="card max-w-xl space-y-5">
-      <FormMessage message={status?.text} tone={status?.tone} />
+      <FormMessage message={status?.text} tone={status?.tone} className="-mb-5 [&:not(:empty)]:mb-0" />
       <Field label="Company name" error={formState.errors.name?.message}>
         {(a11y) => <TextInput {...a11y} {...register('name')} />}
       </Field>

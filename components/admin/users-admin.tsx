@@ -47,7 +47,7 @@ export function UsersAdmin({ users, currentUserId, createUser, updateUser }: Pro
 
   return (
     <div className="space-y-8">
-      <FormMessage message={status?.text} tone={status?.tone} />
+      <FormMessage message={status?.text} tone={status?.tone} className="-mb-8 [&:not(:empty)]:mb-0" />
       <section aria-labelledby="users-heading" className="card relative overflow-x-auto p-0">
         <h2 id="users-heading" className="sr-only">
           People

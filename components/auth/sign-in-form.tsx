@@ -41,7 +41,7 @@ export function SignInForm() {
 
   return (
     <form onSubmit={handleSubmit(onSubmit)} noValidate className="space-y-5">
-      <FormMessage message={message} />
+      <FormMessage message={message} className="-mb-5 [&:not(:empty)]:mb-0" />
       <Field label="E-mail" error={formState.errors.email?.message}>
         {(a11y) => <TextInput {...a11y} type="email" autoComplete="username" inputMode="email" {...register('email')} />}
       </Field>

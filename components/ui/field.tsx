@@ -48,9 +48,10 @@ export const Select = forwardRef<HTMLSelectElement, SelectHTMLAttributes<HTMLSel
   return <select ref={ref} className={clsx('input pr-8', className)} {...props} />;
 });
 
-export function FormMessage({ message, tone = 'error' }: { message?: string | null; tone?: 'error' | 'ok' }) {
+/** A form-level message in a live region that is always there, so screen readers announce it. */
+export function FormMessage({ message, tone = 'error', className }: { message?: string | null; tone?: 'error' | 'ok'; className?: string }) {
   return (
-    <div role={tone === 'error' ? 'alert' : 'status'} aria-live="polite">
+    <div role={tone === 'error' ? 'alert' : 'status'} aria-live="polite" className={className}>
       {message && (
         <p
           className={clsx(
