@@ -4,8 +4,8 @@ import { CANONICAL_UNITS, type FindingStep, type Step } from '@/lib/trees/schema
 /** A step as the API and the wizard receive it. */
 export type ApiStep = ReturnType<typeof toApiStep>;
 
-export function toApiStep(step: Step) {
-  const base = {
+function apiBase(step: Step) {
+  return {
     id: step.id,
     kind: step.kind,
     title: step.title,
@@ -14,6 +14,10 @@ export function toApiStep(step: Step) {
     ...(step.why ? { why: step.why } : {}),
     energy: step.energy,
   };
+}
+
+export function toApiStep(step: Step) {
+  const base = apiBase(step);
   switch (step.kind) {
     case 'measure':
       return {
@@ -42,13 +46,8 @@ export function toApiStep(step: Step) {
 
 export function toApiFinding(step: FindingStep) {
   return {
-    id: step.id,
+    ...apiBase(step),
     kind: step.kind,
-    title: step.title,
-    instruction: step.instruction,
-    cautions: step.cautions,
-    ...(step.why ? { why: step.why } : {}),
-    energy: step.energy,
     explanation: step.explanation,
     remedy: step.remedy,
     parts: step.parts,
