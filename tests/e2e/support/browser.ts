@@ -19,7 +19,7 @@ export interface Browser {
   close(): Promise<void>;
 }
 
-/** Debian's chromium through playwright-core, with a throwaway profile (no `playwright install`). */
+/** Debian's chromium through playwright-core, with a throwaway profile; no browser is downloaded. */
 export async function launchBrowser(): Promise<Browser> {
   const profile = mkdtempSync(path.join(os.tmpdir(), 'pg-chromium-'));
   const context = await chromium.launchPersistentContext(profile, {
