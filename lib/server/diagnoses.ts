@@ -3,7 +3,7 @@ import type { Knex } from 'knex';
 import { getCall, setCallStatus, type Viewer } from '@/db/calls';
 import {
   createDiagnosis, findAnswerByClientId, getDiagnosis, insertAnswer, listAnswersForDiagnoses, listDiagnosesForCall,
-  listPathAnswers, markAnswerUndone, saveAnswerResponse, updateDiagnosisOutcome, type AnswerRecord, type DiagnosisRecord,
+  listPathAnswers, markAnswerUndone, saveAnswerResponse, updateDiagnosisOutcome, type AnswerRecord,
 } from '@/db/diagnoses';
 import { db } from '@/db/knex';
 import { getTreeVersion, type TreeVersionRecord } from '@/db/trees';
@@ -230,17 +230,4 @@ export async function undoLastAnswer({ viewer, id }: { viewer: Viewer; id: strin
     await trx('diagnoses').where({ id }).update({ signed_off_by: null, signed_off_at: null });
   });
   return getDiagnosisView({ viewer, id });
-}
-
-export async function listCallDiagnoses({ viewer, callId }: { viewer: Viewer; callId: string }): Promise<(DiagnosisRecord & { findingTitle: string | null; treeTitle: string; treeVersion: number })[]> {
-  const diagnoses = await listDiagnosesForCall({ companyId: viewer.companyId, callId });
-  const versions = new Map<string, TreeVersionRecord>();
-  for (const d of diagnoses) {
-    if (!versions.has(d.treeVersionId)) versions.set(d.treeVersionId, await getTreeVersion({ companyId: viewer.companyId, id: d.treeVersionId }));
-  }
-  return diagnoses.map((d) => {
-    const v = versions.get(d.treeVersionId)!;
-    const step = d.findingStepId ? v.graph.steps.find((s) => s.id === d.findingStepId) : undefined;
-    return { ...d, findingTitle: step?.title ?? null, treeTitle: v.title, treeVersion: v.version };
-  });
 }

@@ -113,6 +113,27 @@ async function serverView(diagnosisId: string) {
   return view.json as { status: string; finding: { id: string } | null; path: { stepId: string; band: string | null }[] };
 }
 
+// From the control's thermostat input to the meter in series, with every check passing (the
+// spark gap typed as a fraction with the inch picked).
+const CONTROL_TO_FLAME_SIGNAL: Move[] = [
+  { step: 'control-th-input', text: '24' },
+  { step: 'spark-observe', choice: 'at-gap' },
+  { step: 'lock-out--spark-gap' },
+  { step: 'spark-gap', text: '1/8', unit: 'in' },
+  { step: 'rod-condition', choice: 'good' },
+  { step: 're-energize--valve-voltage' },
+  { step: 'valve-voltage', text: '24' },
+  { step: 'connect-manometer' },
+  { step: 'fuel-type', choice: 'natural-gas' },
+  { step: 'inlet-pressure', text: '7' },
+  { step: 'manifold-pressure', text: '3.5' },
+  { step: 'burners-light', choice: 'light' },
+  { step: 'carry-over', choice: 'carries' },
+  { step: 'lock-out--connect-microammeter' },
+  { step: 'connect-microammeter' },
+  { step: 're-energize--flame-signal' },
+];
+
 describe('the wizard', () => {
   it('walks to a blown control fuse, resuming after a reload and undoing one answer', async () => {
     const callId = await newCall();
@@ -166,22 +187,7 @@ describe('the wizard', () => {
     const { wizard, diagnosisId } = await startDiagnosis(callId);
     for (const move of HEALTHY_TO_CONTROL) await play(wizard, move);
     const moves: Move[] = [
-      { step: 'control-th-input', text: '24' },
-      { step: 'spark-observe', choice: 'at-gap' },
-      { step: 'lock-out--spark-gap' },
-      { step: 'spark-gap', text: '1/8', unit: 'in' },
-      { step: 'rod-condition', choice: 'good' },
-      { step: 're-energize--valve-voltage' },
-      { step: 'valve-voltage', text: '24' },
-      { step: 'connect-manometer' },
-      { step: 'fuel-type', choice: 'natural-gas' },
-      { step: 'inlet-pressure', text: '7' },
-      { step: 'manifold-pressure', text: '3.5' },
-      { step: 'burners-light', choice: 'light' },
-      { step: 'carry-over', choice: 'carries' },
-      { step: 'lock-out--connect-microammeter' },
-      { step: 'connect-microammeter' },
-      { step: 're-energize--flame-signal' },
+      ...CONTROL_TO_FLAME_SIGNAL,
       { step: 'flame-signal', text: '0.5' },
       { step: 'lock-out--rod-inspect' },
       { step: 'rod-inspect', choice: 'dirty' },
@@ -225,22 +231,7 @@ describe('the wizard', () => {
     };
     const toFlameSignal: Move[] = [
       ...HEALTHY_TO_CONTROL,
-      { step: 'control-th-input', text: '24' },
-      { step: 'spark-observe', choice: 'at-gap' },
-      { step: 'lock-out--spark-gap' },
-      { step: 'spark-gap', text: '1/8' },
-      { step: 'rod-condition', choice: 'good' },
-      { step: 're-energize--valve-voltage' },
-      { step: 'valve-voltage', text: '24' },
-      { step: 'connect-manometer' },
-      { step: 'fuel-type', choice: 'natural-gas' },
-      { step: 'inlet-pressure', text: '7' },
-      { step: 'manifold-pressure', text: '3.5' },
-      { step: 'burners-light', choice: 'light' },
-      { step: 'carry-over', choice: 'carries' },
-      { step: 'lock-out--connect-microammeter' },
-      { step: 'connect-microammeter' },
-      { step: 're-energize--flame-signal' },
+      ...CONTROL_TO_FLAME_SIGNAL,
     ];
     const callId = await newCall();
     // First diagnosis: a weak signal and an open ground path; the second reads a good signal, so
