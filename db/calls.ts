@@ -48,7 +48,9 @@ export function scopeCalls(query: Knex.QueryBuilder, viewer: Viewer, alias = 'c'
   if (viewer.role === 'lead' || viewer.role === 'admin') return query;
   if (viewer.role === 'technician') {
     return query.where((q) =>
-      q.where(`${alias}.technician_id`, viewer.id).orWhereIn(`${alias}.technician_id`, db('users').select('id').where({ company_id: viewer.companyId, role: 'apprentice' })),
+      q
+        .where(`${alias}.technician_id`, viewer.id)
+        .orWhereIn(`${alias}.technician_id`, db('users').select('id').where({ company_id: viewer.companyId, role: 'apprentice' })),
     );
   }
   if (viewer.role === 'apprentice') return query.where(`${alias}.technician_id`, viewer.id);
@@ -62,7 +64,16 @@ const callQuery = (viewer: Viewer) =>
       .join('sites as s', 's.id', 'u.site_id')
       .leftJoin('users as t', 't.id', 'c.technician_id')
       .leftJoin('users as cb', 'cb.id', 'c.closed_by')
-      .select('c.*', 'u.label as unit_label', 's.id as site_id', 's.name as site_name', 's.address as site_address', 't.name as technician_name', 't.role as technician_role', 'cb.name as closed_by_name'),
+      .select(
+        'c.*',
+        'u.label as unit_label',
+        's.id as site_id',
+        's.name as site_name',
+        's.address as site_address',
+        't.name as technician_name',
+        't.role as technician_role',
+        'cb.name as closed_by_name',
+      ),
     viewer,
   );
 
@@ -127,7 +138,10 @@ export async function createCall({
   return getCall({ viewer: { ...viewer, role: 'admin' }, id: row.id });
 }
 
-export async function setCallStatus({ viewer, id, status, from }: { viewer: Viewer; id: string; status: CallStatus; from?: CallStatus[] }, trx: Knex = db): Promise<void> {
+export async function setCallStatus(
+  { viewer, id, status, from }: { viewer: Viewer; id: string; status: CallStatus; from?: CallStatus[] },
+  trx: Knex = db,
+): Promise<void> {
   const q = trx('service_calls').where({ id, company_id: viewer.companyId });
   if (from) q.whereIn('status', from);
   await q.update({ status });
@@ -145,14 +159,23 @@ export async function recordRepair({
   verification: Verification;
 }): Promise<ServiceCall> {
   const call = await getCall({ viewer, id });
-  if (call.status === 'closed' || call.status === 'referred') throw new AppError('conflict', 'This call is closed; its record cannot change.');
+  if (call.status === 'closed' || call.status === 'referred')
+    throw new AppError('conflict', 'This call is closed; its record cannot change.');
   await db('service_calls')
     .where({ id, company_id: viewer.companyId })
     .update({ repair_notes: repairNotes, verification: JSON.stringify(verification), status: 'repaired' });
   return getCall({ viewer, id });
 }
 
-export async function closeCall({ viewer, id, outcome }: { viewer: Viewer; id: string; outcome: 'closed' | 'referred' }): Promise<ServiceCall> {
+export async function closeCall({
+  viewer,
+  id,
+  outcome,
+}: {
+  viewer: Viewer;
+  id: string;
+  outcome: 'closed' | 'referred';
+}): Promise<ServiceCall> {
   await db('service_calls')
     .where({ id, company_id: viewer.companyId })
     .update({ status: outcome, closed_at: db.fn.now(), closed_by: viewer.id });

@@ -89,7 +89,10 @@ const diagnosisQuery = (trx: Knex) =>
     .select('d.*', 'u.name as user_name', 'u.role as user_role', 'so.name as signed_off_by_name');
 
 /** Company scope only: the caller checks that the viewer may see the diagnosis's call. */
-export async function getDiagnosis({ companyId, id, forUpdate = false }: { companyId: string; id: string; forUpdate?: boolean }, trx: Knex = db): Promise<DiagnosisRecord> {
+export async function getDiagnosis(
+  { companyId, id, forUpdate = false }: { companyId: string; id: string; forUpdate?: boolean },
+  trx: Knex = db,
+): Promise<DiagnosisRecord> {
   if (!isUuid(id)) throw notFound('That diagnosis');
   if (forUpdate) await trx('diagnoses').where({ id, company_id: companyId }).forUpdate().first('id');
   const row = await diagnosisQuery(trx).where({ 'd.id': id, 'd.company_id': companyId }).first();
@@ -105,7 +108,9 @@ export async function createDiagnosis(
   { companyId, callId, treeVersionId, userId }: { companyId: string; callId: string; treeVersionId: string; userId: string },
   trx: Knex = db,
 ): Promise<string> {
-  const [row] = await trx('diagnoses').insert({ company_id: companyId, call_id: callId, tree_version_id: treeVersionId, user_id: userId }).returning('id');
+  const [row] = await trx('diagnoses')
+    .insert({ company_id: companyId, call_id: callId, tree_version_id: treeVersionId, user_id: userId })
+    .returning('id');
   return row.id;
 }
 
@@ -123,17 +128,35 @@ export async function signOffDiagnosis({ companyId, id, userId }: { companyId: s
 }
 
 /** The answers on the path (not undone), in order. */
-export async function listPathAnswers({ companyId, diagnosisId }: { companyId: string; diagnosisId: string }, trx: Knex = db): Promise<AnswerRecord[]> {
-  return (await trx('answers').where({ company_id: companyId, diagnosis_id: diagnosisId }).whereNull('undone_at').orderBy('seq')).map(toAnswer);
+export async function listPathAnswers(
+  { companyId, diagnosisId }: { companyId: string; diagnosisId: string },
+  trx: Knex = db,
+): Promise<AnswerRecord[]> {
+  return (await trx('answers').where({ company_id: companyId, diagnosis_id: diagnosisId }).whereNull('undone_at').orderBy('seq')).map(
+    toAnswer,
+  );
 }
 
-export async function listAnswersForDiagnoses({ companyId, diagnosisIds }: { companyId: string; diagnosisIds: string[] }): Promise<(AnswerRecord & { diagnosisId: string })[]> {
+export async function listAnswersForDiagnoses({
+  companyId,
+  diagnosisIds,
+}: {
+  companyId: string;
+  diagnosisIds: string[];
+}): Promise<(AnswerRecord & { diagnosisId: string })[]> {
   if (!diagnosisIds.length) return [];
-  const rows = await db('answers').where('company_id', companyId).whereIn('diagnosis_id', diagnosisIds).whereNull('undone_at').orderBy(['diagnosis_id', 'seq']);
+  const rows = await db('answers')
+    .where('company_id', companyId)
+    .whereIn('diagnosis_id', diagnosisIds)
+    .whereNull('undone_at')
+    .orderBy(['diagnosis_id', 'seq']);
   return rows.map((r: Record<string, unknown>) => ({ ...toAnswer(r), diagnosisId: r.diagnosis_id as string }));
 }
 
-export async function findAnswerByClientId({ companyId, diagnosisId, clientId }: { companyId: string; diagnosisId: string; clientId: string }, trx: Knex = db): Promise<AnswerRecord | null> {
+export async function findAnswerByClientId(
+  { companyId, diagnosisId, clientId }: { companyId: string; diagnosisId: string; clientId: string },
+  trx: Knex = db,
+): Promise<AnswerRecord | null> {
   const row = await trx('answers').where({ company_id: companyId, diagnosis_id: diagnosisId, client_id: clientId }).first();
   return row ? toAnswer(row) : null;
 }
@@ -182,7 +205,9 @@ export async function insertAnswer(
 }
 
 export async function saveAnswerResponse({ id, response }: { id: string; response: unknown }, trx: Knex = db): Promise<void> {
-  await trx('answers').where({ id }).update({ response: JSON.stringify(response) });
+  await trx('answers')
+    .where({ id })
+    .update({ response: JSON.stringify(response) });
 }
 
 export async function markAnswerUndone({ id }: { id: string }, trx: Knex = db): Promise<void> {

@@ -2,7 +2,13 @@ import 'server-only';
 import { db } from '@/db/knex';
 
 /** Failed sign-ins under `key` within the window, and when the oldest of them leaves it. */
-export async function countRecentFailures({ key, windowMs }: { key: string; windowMs: number }): Promise<{ count: number; oldest: Date | null }> {
+export async function countRecentFailures({
+  key,
+  windowMs,
+}: {
+  key: string;
+  windowMs: number;
+}): Promise<{ count: number; oldest: Date | null }> {
   const since = new Date(Date.now() - windowMs);
   const row = await db('sign_in_failures')
     .where('key', key)
@@ -14,5 +20,7 @@ export async function countRecentFailures({ key, windowMs }: { key: string; wind
 export async function recordFailures({ keys }: { keys: string[] }): Promise<void> {
   await db('sign_in_failures').insert(keys.map((key) => ({ key })));
   // Keep the table small: nothing older than a day matters to any window we use.
-  await db('sign_in_failures').where('at', '<', new Date(Date.now() - 24 * 3600_000)).delete();
+  await db('sign_in_failures')
+    .where('at', '<', new Date(Date.now() - 24 * 3600_000))
+    .delete();
 }

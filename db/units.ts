@@ -92,7 +92,11 @@ export async function listUnitReadings({ companyId, unitId }: { companyId: strin
     .whereNull('a.undone_at')
     .whereNotNull('a.value')
     .orderBy('a.created_at')
-    .select('a.*', 'd.call_id', db.raw(`(SELECT s->>'title' FROM jsonb_array_elements(v.graph->'steps') s WHERE s->>'id' = a.step_id LIMIT 1) as step_title`));
+    .select(
+      'a.*',
+      'd.call_id',
+      db.raw(`(SELECT s->>'title' FROM jsonb_array_elements(v.graph->'steps') s WHERE s->>'id' = a.step_id LIMIT 1) as step_title`),
+    );
   return rows.map((r: Record<string, unknown>) => ({
     answerId: r.id as string,
     callId: r.call_id as string,

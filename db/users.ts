@@ -31,7 +31,16 @@ interface UserRow {
   company_name?: string;
 }
 
-const COLUMNS = ['users.id', 'users.company_id', 'users.email', 'users.name', 'users.role', 'users.active', 'users.session_version', 'users.created_at'];
+const COLUMNS = [
+  'users.id',
+  'users.company_id',
+  'users.email',
+  'users.name',
+  'users.role',
+  'users.active',
+  'users.session_version',
+  'users.created_at',
+];
 
 function toUser(row: UserRow): User {
   return {
@@ -69,7 +78,9 @@ export async function getSessionUser({ id }: { id: string }): Promise<UserWithCo
 }
 
 export async function listUsers({ companyId, roles }: { companyId: string; roles?: readonly Role[] }): Promise<User[]> {
-  const query = db('users').where('company_id', companyId).orderBy([{ column: 'active', order: 'desc' }, 'name']);
+  const query = db('users')
+    .where('company_id', companyId)
+    .orderBy([{ column: 'active', order: 'desc' }, 'name']);
   if (roles) query.whereIn('role', roles as Role[]);
   const rows: UserRow[] = await query.select(COLUMNS);
   return rows.map(toUser);
@@ -77,7 +88,7 @@ export async function listUsers({ companyId, roles }: { companyId: string; roles
 
 export async function getUser({ companyId, id }: { companyId: string; id: string }): Promise<User> {
   if (!isUuid(id)) throw notFound('That user');
-  const row: UserRow | undefined = await db("users").where({ id, company_id: companyId }).first(COLUMNS);
+  const row: UserRow | undefined = await db('users').where({ id, company_id: companyId }).first(COLUMNS);
   if (!row) throw notFound('That user');
   return toUser(row);
 }

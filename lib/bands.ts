@@ -45,9 +45,7 @@ export function findBand(bands: readonly Band[], value: number): BandMatch | nul
 const NON_NEGATIVE: ReadonlySet<Quantity> = new Set<Quantity>(['vac', 'ohm', 'length', 'pressure']);
 
 export function gaugeScale(step: Pick<MeasureStep, 'bands' | 'quantity'>): GaugeScale {
-  const limits = [
-    ...new Set(step.bands.flatMap((b) => [b.from, b.to]).filter((v): v is number => v !== undefined)),
-  ].sort((a, b) => a - b);
+  const limits = [...new Set(step.bands.flatMap((b) => [b.from, b.to]).filter((v): v is number => v !== undefined))].sort((a, b) => a - b);
 
   let min: number;
   let max: number;
@@ -124,7 +122,9 @@ export function checkBandCoverage(bands: readonly Pick<Band, 'from' | 'to' | 'la
     problems.push(`The first band must be open below (no "from"): ${describe(first, 0)} leaves values below ${first.from} uncovered`);
   }
   if (last.to !== undefined) {
-    problems.push(`The last band must be open above (no "to"): ${describe(last, bands.length - 1)} leaves values from ${last.to} up uncovered`);
+    problems.push(
+      `The last band must be open above (no "to"): ${describe(last, bands.length - 1)} leaves values from ${last.to} up uncovered`,
+    );
   }
 
   for (let i = 1; i < bands.length; i++) {
@@ -145,7 +145,9 @@ export function checkBandCoverage(bands: readonly Pick<Band, 'from' | 'to' | 'la
       continue;
     }
     if (band.from > prev.to) {
-      problems.push(`Gap between ${describe(prev, i - 1)} and ${describe(band, i)}: values from ${prev.to} to ${band.from} fall in no band`);
+      problems.push(
+        `Gap between ${describe(prev, i - 1)} and ${describe(band, i)}: values from ${prev.to} to ${band.from} fall in no band`,
+      );
     } else if (band.from < prev.to) {
       problems.push(`${describe(prev, i - 1)} overlaps ${describe(band, i)} between ${band.from} and ${prev.to}`);
     }

@@ -40,9 +40,7 @@ function requirePositive(name: string, value: number): void {
 
 function requireGauge(awg: number): void {
   if (typeof awg !== 'number' || !Number.isInteger(awg) || awg < AWG_MIN || awg > AWG_MAX) {
-    throw new RangeError(
-      `Unknown wire gauge ${String(awg)}: use a whole AWG number from 40 to 0, or -1, -2, -3 for 00, 000, 0000`,
-    );
+    throw new RangeError(`Unknown wire gauge ${String(awg)}: use a whole AWG number from 40 to 0, or -1, -2, -3 for 00, 000, 0000`);
   }
 }
 
@@ -51,7 +49,11 @@ function requireGauge(awg: number): void {
  * Returns the number the other functions take (00 → -1, 000 → -2, 0000 → -3).
  */
 export function parseAwg(text: string): number {
-  const s = text.trim().replace(/\s*awg$/i, '').replace(/^#/, '').trim();
+  const s = text
+    .trim()
+    .replace(/\s*awg$/i, '')
+    .replace(/^#/, '')
+    .trim();
   let awg: number;
   const slash = /^([1-4])\/0$/.exec(s);
   if (slash) awg = 1 - Number(slash[1]);
@@ -76,9 +78,7 @@ export function copperResistanceOhmsPerKft(awg: number, tempC = 20): number {
   const dCm = awgDiameterInches(awg) * CM_PER_INCH;
   requireFinite('Conductor temperature', tempC);
   if (tempC < CONDUCTOR_TEMP_RANGE_C.min || tempC > CONDUCTOR_TEMP_RANGE_C.max) {
-    throw new RangeError(
-      `Conductor temperature ${tempC} °C is outside ${CONDUCTOR_TEMP_RANGE_C.min} to ${CONDUCTOR_TEMP_RANGE_C.max} °C`,
-    );
+    throw new RangeError(`Conductor temperature ${tempC} °C is outside ${CONDUCTOR_TEMP_RANGE_C.min} to ${CONDUCTOR_TEMP_RANGE_C.max} °C`);
   }
   const areaCm2 = (Math.PI * dCm * dCm) / 4;
   const r20 = (IACS_RESISTIVITY_MICRO_OHM_CM * 1e-6 * CM_PER_KFT) / areaCm2;
@@ -158,13 +158,7 @@ export interface TransformerLoadResult {
   class2Ok: boolean | null;
 }
 
-export function transformerLoad({
-  ratingVa,
-  secondaryVolts = 24,
-  loadsVa,
-  loadsA,
-  fuseAmps,
-}: TransformerLoadInput): TransformerLoadResult {
+export function transformerLoad({ ratingVa, secondaryVolts = 24, loadsVa, loadsA, fuseAmps }: TransformerLoadInput): TransformerLoadResult {
   requirePositive('Transformer rating (VA)', ratingVa);
   requirePositive('Secondary voltage (V)', secondaryVolts);
   if (loadsVa === undefined && loadsA === undefined) {

@@ -1,14 +1,7 @@
 // One error type for the whole server side. Its code maps to an HTTP status in route handlers and
 // to a message in server actions; a database message never reaches the client.
 export type ErrorCode =
-  | 'bad_request'
-  | 'unauthorized'
-  | 'forbidden'
-  | 'not_found'
-  | 'conflict'
-  | 'rate_limited'
-  | 'unavailable'
-  | 'internal';
+  'bad_request' | 'unauthorized' | 'forbidden' | 'not_found' | 'conflict' | 'rate_limited' | 'unavailable' | 'internal';
 
 const STATUS: Record<ErrorCode, number> = {
   bad_request: 400,

@@ -25,9 +25,7 @@ export interface UnitDef {
   fromCanonical: (v: number) => number;
 }
 
-export type ParseResult =
-  | { ok: true; value: number; unit: string; canonicalUnit: string }
-  | { ok: false; message: string };
+export type ParseResult = { ok: true; value: number; unit: string; canonicalUnit: string } | { ok: false; message: string };
 
 /**
  * Values a meter can plausibly show on this equipment, in canonical units (inclusive). Anything
@@ -92,11 +90,7 @@ const volts = (kind: 'AC' | 'DC'): UnitSpec[] => [
 ];
 
 const UNIT_SPECS: Record<Quantity, UnitSpec[]> = {
-  vac: [
-    ...volts('AC').map((u) =>
-      u.symbol === 'VAC' ? { ...u, aliases: [...u.aliases, 'vrms', 'v~', 'vac~'] } : u,
-    ),
-  ],
+  vac: [...volts('AC').map((u) => (u.symbol === 'VAC' ? { ...u, aliases: [...u.aliases, 'vrms', 'v~', 'vac~'] } : u))],
   vdc: volts('DC'),
   udc: [
     {
@@ -153,9 +147,26 @@ const UNIT_SPECS: Record<Quantity, UnitSpec[]> = {
       ...identity,
       // "w.g." (water gauge) is the same unit under another trade name.
       aliases: [
-        'inwc', '"wc', 'iwc', 'wc', 'inh2o', '"h2o', 'inchwc', 'incheswc', 'inchh2o', 'inchesh2o',
-        'inchofwater', 'inchesofwater', 'inchesofwatercolumn', 'inwg', '"wg', 'iwg', 'incheswg',
-        '"water', 'inwater', 'incheswater',
+        'inwc',
+        '"wc',
+        'iwc',
+        'wc',
+        'inh2o',
+        '"h2o',
+        'inchwc',
+        'incheswc',
+        'inchh2o',
+        'inchesh2o',
+        'inchofwater',
+        'inchesofwater',
+        'inchesofwatercolumn',
+        'inwg',
+        '"wg',
+        'iwg',
+        'incheswg',
+        '"water',
+        'inwater',
+        'incheswater',
       ],
     },
     { symbol: 'Pa', label: 'pascals', ...scale(1 / PA_PER_INWC), aliases: ['pa', 'pascal', 'pascals'] },
@@ -211,8 +222,7 @@ function findInQuantity(quantity: Quantity, unitText: string): UnitDef | undefin
   if (exact) return strip(exact);
   const lower = key.toLowerCase();
   const loose = specs.find(
-    (u) =>
-      (!u.caseSensitive && u.symbol.toLowerCase() === lower) || u.aliases.some((a) => a.toLowerCase() === lower),
+    (u) => (!u.caseSensitive && u.symbol.toLowerCase() === lower) || u.aliases.some((a) => a.toLowerCase() === lower),
   );
   return loose ? strip(loose) : undefined;
 }
@@ -235,10 +245,7 @@ function unitMismatchMessage(quantity: Quantity, unitText: string): string {
     const known = UNITS_BY_QUANTITY[quantity].map((u) => u.symbol).join(', ');
     return `"${shown}" is not a unit this app knows; for ${measures} use ${known}`;
   }
-  const kind =
-    owners.length > 1 && owners.every((q) => q === 'vac' || q === 'vdc')
-      ? 'a voltage'
-      : QUANTITY_WORDS[owners[0]].unitKind;
+  const kind = owners.length > 1 && owners.every((q) => q === 'vac' || q === 'vdc') ? 'a voltage' : QUANTITY_WORDS[owners[0]].unitKind;
   const hint = quantity === 'pressure' && owners.includes('length') ? ' (inches of water: write inWC)' : '';
   return `${shown} is ${kind} unit, this step measures ${measures}${hint}`;
 }
@@ -402,12 +409,7 @@ export interface FormatOptions {
 }
 
 /** A canonical value shown in `unit` (default the canonical one), e.g. "26.4 VAC", "1/8 in". */
-export function formatReading(
-  quantity: Quantity,
-  canonicalValue: number,
-  unit?: string,
-  opts: FormatOptions = {},
-): string {
+export function formatReading(quantity: Quantity, canonicalValue: number, unit?: string, opts: FormatOptions = {}): string {
   if (!Number.isFinite(canonicalValue)) throw new RangeError(`Cannot format ${canonicalValue}: not a finite number`);
   const target = unit ? requireUnit(quantity, unit) : UNITS_BY_QUANTITY[quantity][0];
   const shown = target.fromCanonical(canonicalValue);

@@ -134,7 +134,9 @@ function makeSetup(steps: Map<string, Step>) {
         if (event.type !== 'answer.measure' || event.stepId !== params.stepId) return false;
         const step = steps.get(params.stepId);
         if (step?.kind !== 'measure' || typeof event.value !== 'number') return false;
-        return findBand(step.bands, event.value)?.index === params.index && routeTo(steps.get(params.outcome), context.energy) === params.route;
+        return (
+          findBand(step.bands, event.value)?.index === params.index && routeTo(steps.get(params.outcome), context.energy) === params.route
+        );
       },
       choiceRoute: ({ context, event }, params: { stepId: string; choice: string; outcome: string; route: Route }) =>
         event.type === 'answer.choose' &&
@@ -142,7 +144,9 @@ function makeSetup(steps: Map<string, Step>) {
         event.choice === params.choice &&
         routeTo(steps.get(params.outcome), context.energy) === params.route,
       confirmRoute: ({ context, event }, params: { stepId: string; outcome: string; route: Route }) =>
-        event.type === 'answer.confirm' && event.stepId === params.stepId && routeTo(steps.get(params.outcome), context.energy) === params.route,
+        event.type === 'answer.confirm' &&
+        event.stepId === params.stepId &&
+        routeTo(steps.get(params.outcome), context.energy) === params.route,
       lastAnswerWas: ({ context }, params: { stateId: string }) => context.path.at(-1)?.stepId === params.stateId,
     },
     actions: {
@@ -213,7 +217,10 @@ export function createDiagnosisMachine(treeVersion: TreeVersion) {
               routes(band.outcome).map((route) => ({
                 guard: { type: 'bandRoute' as const, params: { stepId: step.id, index, outcome: band.outcome, route } },
                 target: stateFor(route, band.outcome),
-                actions: { type: 'recordAnswer' as const, params: { stepId: step.id, kind: 'measure' as const, outcome: band.outcome, bandIndex: index } },
+                actions: {
+                  type: 'recordAnswer' as const,
+                  params: { stepId: step.id, kind: 'measure' as const, outcome: band.outcome, bandIndex: index },
+                },
               })),
             ),
           },

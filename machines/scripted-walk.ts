@@ -27,7 +27,14 @@ export function scriptedWalk(version: TreeVersion, script: WalkScript, maxSteps 
     if (step.kind === 'measure') {
       if (typeof scripted !== 'number') throw new Error(`The script has no reading for "${step.id}"`);
       const evaluation = evaluateReading(step, scripted);
-      answer = { stepId: step.id, value: scripted, step, bandIndex: evaluation.index, bandLabel: evaluation.band.label, verdict: evaluation.verdict };
+      answer = {
+        stepId: step.id,
+        value: scripted,
+        step,
+        bandIndex: evaluation.index,
+        bandLabel: evaluation.band.label,
+        verdict: evaluation.verdict,
+      };
     } else if (step.kind === 'inspect') {
       if (typeof scripted !== 'string') throw new Error(`The script has no choice for "${step.id}"`);
       answer = { stepId: step.id, choice: scripted, step };

@@ -182,7 +182,9 @@ function applyView(context: WizardContext, view: WizardView) {
     pending,
     ...derive(context.version, saved, pending),
     ...(dropped > 0
-      ? { notice: `${dropped === 1 ? 'One answer' : `${dropped} answers`} no longer followed from where the diagnosis stands and ${dropped === 1 ? 'was' : 'were'} dropped.` }
+      ? {
+          notice: `${dropped === 1 ? 'One answer' : `${dropped} answers`} no longer followed from where the diagnosis stands and ${dropped === 1 ? 'was' : 'were'} dropped.`,
+        }
       : {}),
   };
 }
@@ -221,7 +223,12 @@ export const wizardMachine = setup({
     enqueue: assign(({ context, event }) => {
       if (event.type !== 'answer.submit') return {};
       const step = getStep(context.version, event.answer.stepId) as Step;
-      const answer: PendingAnswer = { ...event.answer, clientId: event.answer.clientId ?? newClientId(), kind: step.kind as AnswerKind, attempts: 0 };
+      const answer: PendingAnswer = {
+        ...event.answer,
+        clientId: event.answer.clientId ?? newClientId(),
+        kind: step.kind as AnswerKind,
+        attempts: 0,
+      };
       const pending = [...context.pending, answer];
       return { pending, refusal: null, notice: null, ...derive(context.version, context.saved, pending) };
     }),
@@ -294,7 +301,8 @@ export const wizardMachine = setup({
     canUndo: ({ context }) => context.pending.length === 0 && context.saved.length > 0,
     isSaved: (_, params: { outcome: SaveOutcome }) => params.outcome.type === 'saved',
     drainsQueue: ({ context }, params: { outcome: SaveOutcome }) =>
-      params.outcome.type === 'saved' && context.pending.every((p) => p.clientId === (params.outcome as { answer: ServerAnswer }).answer.clientId),
+      params.outcome.type === 'saved' &&
+      context.pending.every((p) => p.clientId === (params.outcome as { answer: ServerAnswer }).answer.clientId),
     isRefused: (_, params: { outcome: SaveOutcome }) => params.outcome.type === 'refused',
     isConflict: (_, params: { outcome: SaveOutcome }) => params.outcome.type === 'conflict',
   },
@@ -471,8 +479,8 @@ export function pathItems(context: Pick<WizardContext, 'version' | 'saved' | 'pe
       ...(a.text !== undefined ? { text: a.text } : {}),
       ...(a.unit !== undefined ? { unit: a.unit } : {}),
       ...(a.value !== undefined ? { value: a.value } : {}),
-      ...(a.band ?? local ? { band: a.band ?? local?.band.label } : {}),
-      ...(a.verdict ?? local ? { verdict: (a.verdict ?? local?.band.verdict) as Verdict } : {}),
+      ...((a.band ?? local) ? { band: a.band ?? local?.band.label } : {}),
+      ...((a.verdict ?? local) ? { verdict: (a.verdict ?? local?.band.verdict) as Verdict } : {}),
       ...(step?.kind === 'inspect' && a.choice ? { choiceLabel: step.choices.find((c) => c.value === a.choice)?.label ?? a.choice } : {}),
       ...(a.confirmed !== undefined ? { confirmed: a.confirmed } : {}),
       saved,

@@ -29,7 +29,9 @@ export async function up(knex: Knex): Promise<void> {
   });
   // Sign-in is by e-mail alone, so an address is unique across all companies, whatever its case.
   await knex.raw('CREATE UNIQUE INDEX users_email_unique ON users (lower(email))');
-  await knex.raw(`ALTER TABLE users ADD CONSTRAINT users_role_check CHECK (role IN ('apprentice', 'technician', 'lead', 'trainer', 'admin'))`);
+  await knex.raw(
+    `ALTER TABLE users ADD CONSTRAINT users_role_check CHECK (role IN ('apprentice', 'technician', 'lead', 'trainer', 'admin'))`,
+  );
 
   await knex.schema.createTable('sign_in_failures', (t) => {
     t.bigIncrements('id');

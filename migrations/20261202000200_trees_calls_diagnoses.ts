@@ -27,7 +27,9 @@ export async function up(knex: Knex): Promise<void> {
     t.unique(['tree_id', 'version']);
     t.index(['company_id']);
   });
-  await knex.raw(`ALTER TABLE tree_versions ADD CONSTRAINT tree_versions_status_check CHECK (status IN ('draft', 'in_review', 'published', 'retired'))`);
+  await knex.raw(
+    `ALTER TABLE tree_versions ADD CONSTRAINT tree_versions_status_check CHECK (status IN ('draft', 'in_review', 'published', 'retired'))`,
+  );
   // A published version is what diagnoses ran against: its graph, number and tree never change,
   // it can only be retired, and it cannot be deleted.
   await knex.raw(`
@@ -96,7 +98,9 @@ export async function up(knex: Knex): Promise<void> {
     t.index(['company_id', 'status']);
     t.index(['unit_id']);
   });
-  await knex.raw(`ALTER TABLE service_calls ADD CONSTRAINT service_calls_status_check CHECK (status IN ('open', 'diagnosing', 'repaired', 'closed', 'referred'))`);
+  await knex.raw(
+    `ALTER TABLE service_calls ADD CONSTRAINT service_calls_status_check CHECK (status IN ('open', 'diagnosing', 'repaired', 'closed', 'referred'))`,
+  );
 
   await knex.schema.createTable('diagnoses', (t) => {
     t.uuid('id').primary().defaultTo(knex.raw('gen_random_uuid()'));

@@ -66,7 +66,7 @@ export function ensurePostgres() {
 export function ensureChromium() {
   const exe = process.env.CHROMIUM_PATH ?? '/usr/bin/chromium';
   if (existsSync(exe)) return exe;
-  aptInstall(['chromium'], "Chromium for the browser tests (Debian package chromium)");
+  aptInstall(['chromium'], 'Chromium for the browser tests (Debian package chromium)');
   return exe;
 }
 
@@ -96,7 +96,7 @@ export async function startCluster({ bin, dir, port, throwaway = false }) {
     const res = pg(bin, 'initdb', ['-D', data, '-U', 'postgres', '--auth=trust', '-E', 'UTF8', '--locale=C.UTF-8']);
     if (res.status !== 0) throw new Error(`initdb failed:\n${res.stderr}${res.stdout}`);
   }
-  if (await portAnswers(port) && !(await clusterIsOurs(bin, data))) {
+  if ((await portAnswers(port)) && !(await clusterIsOurs(bin, data))) {
     throw new Error(`Port ${port} is taken by another program. Set PG_PORT to a free port.`);
   }
   // A cluster that was already running (another `npm start`) is used but left running on stop.
@@ -143,7 +143,10 @@ export function ensureDatabase(bin, port, name, role = 'proving_ground') {
 export function portAnswers(port, host = '127.0.0.1') {
   return new Promise((resolve) => {
     const socket = net.connect({ port, host });
-    socket.once('connect', () => { socket.destroy(); resolve(true); });
+    socket.once('connect', () => {
+      socket.destroy();
+      resolve(true);
+    });
     socket.once('error', () => resolve(false));
   });
 }
@@ -165,7 +168,9 @@ export async function waitForHttp(url, timeoutMs = 120_000) {
     try {
       const res = await fetch(url);
       if (res.status < 500) return;
-    } catch { /* not up yet */ }
+    } catch {
+      /* not up yet */
+    }
     await new Promise((r) => setTimeout(r, 300));
   }
   throw new Error(`${url} did not answer within ${timeoutMs / 1000} s`);

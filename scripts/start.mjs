@@ -5,8 +5,18 @@
 import { existsSync, readdirSync, statSync } from 'node:fs';
 import path from 'node:path';
 import {
-  ensureDatabase, ensureDependencies, ensureDevSecret, ensurePostgres, knex, log, portAnswers, root, run,
-  spawnChild, startCluster, waitForHttp,
+  ensureDatabase,
+  ensureDependencies,
+  ensureDevSecret,
+  ensurePostgres,
+  knex,
+  log,
+  portAnswers,
+  root,
+  run,
+  spawnChild,
+  startCluster,
+  waitForHttp,
 } from './lib.mjs';
 
 const dev = process.argv.includes('--dev');
@@ -56,7 +66,9 @@ function buildIfNeeded() {
 async function main() {
   // A second `npm start` while the first serves must not rebuild under it or stop its database.
   if (await portAnswers(port, host)) {
-    console.error(`\nSomething already answers on http://${host}:${port}: is Proving Ground already running? Stop it with Ctrl-C in its terminal, or set PORT.\n`);
+    console.error(
+      `\nSomething already answers on http://${host}:${port}: is Proving Ground already running? Stop it with Ctrl-C in its terminal, or set PORT.\n`,
+    );
     process.exit(1);
   }
   ensureDependencies();

@@ -6,8 +6,18 @@ import { mkdtempSync, readFileSync, rmSync, existsSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import {
-  ensureChromium, ensureDatabase, ensureDependencies, ensurePostgres, freePort, knex, log, root, run,
-  spawnChild, startCluster, waitForHttp,
+  ensureChromium,
+  ensureDatabase,
+  ensureDependencies,
+  ensurePostgres,
+  freePort,
+  knex,
+  log,
+  root,
+  run,
+  spawnChild,
+  startCluster,
+  waitForHttp,
 } from './lib.mjs';
 
 const args = process.argv.slice(2);
@@ -51,7 +61,10 @@ async function main() {
     cluster.stop();
     rmSync(tmp, { recursive: true, force: true });
   };
-  process.on('SIGINT', () => { cleanup(); process.exit(130); });
+  process.on('SIGINT', () => {
+    cleanup();
+    process.exit(130);
+  });
   try {
     const databaseUrl = ensureDatabase(bin, pgPort, 'proving_ground_test');
     const env = {

@@ -28,7 +28,5 @@ export async function seed(knex: Knex): Promise<void> {
     [ironbark.id, 'admin@other.demo.test', 'Renata Fiore', 'admin'],
     [ironbark.id, 'technician@other.demo.test', 'Callum Achebe', 'technician'],
   ];
-  await knex('users').insert(
-    people.map(([company_id, email, name, role]) => ({ company_id, email, name, role, password_hash: hash })),
-  );
+  await knex('users').insert(people.map(([company_id, email, name, role]) => ({ company_id, email, name, role, password_hash: hash })));
 }

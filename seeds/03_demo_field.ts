@@ -65,9 +65,22 @@ export async function seed(knex: Knex): Promise<void> {
     const [row] = await knex('sites').insert({ company_id: companyId, name, address, contact_email: contactEmail }).returning('id');
     return (row as Id).id;
   }
-  async function unit(companyId: string, siteId: string, u: { label: string; ignition: string; fuel: string; controlSupply: string; va: number; year: number }) {
+  async function unit(
+    companyId: string,
+    siteId: string,
+    u: { label: string; ignition: string; fuel: string; controlSupply: string; va: number; year: number },
+  ) {
     const [row] = await knex('units')
-      .insert({ company_id: companyId, site_id: siteId, label: u.label, ignition: u.ignition, fuel: u.fuel, control_supply: u.controlSupply, transformer_va: u.va, install_year: u.year })
+      .insert({
+        company_id: companyId,
+        site_id: siteId,
+        label: u.label,
+        ignition: u.ignition,
+        fuel: u.fuel,
+        control_supply: u.controlSupply,
+        transformer_va: u.va,
+        install_year: u.year,
+      })
       .returning('id');
     return (row as Id).id;
   }
@@ -151,40 +164,91 @@ export async function seed(knex: Knex): Promise<void> {
   const hall = await site(kestrel.id, 'St. Aldric Parish Hall', '2 Chapel Green, Ashby Marsh', 'warden@st-aldric.example.test');
   const duplex = await site(kestrel.id, 'Marrow Lane duplex', '18–20 Marrow Lane, Fenwick', 'lettings@marrow-lane.example.test');
 
-  const basement = await unit(kestrel.id, oduya, { label: 'Basement furnace', ignition: 'two-rod', fuel: 'natural-gas', controlSupply: '24v', va: 40, year: 2011 });
-  const backRoom = await unit(kestrel.id, bakery, { label: 'Back-room furnace', ignition: 'single-rod', fuel: 'natural-gas', controlSupply: 'line', va: 75, year: 2016 });
-  const hallTwo = await unit(kestrel.id, hall, { label: 'Hall furnace 2', ignition: 'two-rod', fuel: 'lp', controlSupply: '24v', va: 40, year: 2009 });
-  const unitB = await unit(kestrel.id, duplex, { label: 'Unit B furnace', ignition: 'single-rod', fuel: 'natural-gas', controlSupply: '24v', va: 40, year: 2019 });
-  await unit(kestrel.id, duplex, { label: 'Unit A furnace', ignition: 'single-rod', fuel: 'natural-gas', controlSupply: '24v', va: 40, year: 2019 });
+  const basement = await unit(kestrel.id, oduya, {
+    label: 'Basement furnace',
+    ignition: 'two-rod',
+    fuel: 'natural-gas',
+    controlSupply: '24v',
+    va: 40,
+    year: 2011,
+  });
+  const backRoom = await unit(kestrel.id, bakery, {
+    label: 'Back-room furnace',
+    ignition: 'single-rod',
+    fuel: 'natural-gas',
+    controlSupply: 'line',
+    va: 75,
+    year: 2016,
+  });
+  const hallTwo = await unit(kestrel.id, hall, {
+    label: 'Hall furnace 2',
+    ignition: 'two-rod',
+    fuel: 'lp',
+    controlSupply: '24v',
+    va: 40,
+    year: 2009,
+  });
+  const unitB = await unit(kestrel.id, duplex, {
+    label: 'Unit B furnace',
+    ignition: 'single-rod',
+    fuel: 'natural-gas',
+    controlSupply: '24v',
+    va: 40,
+    year: 2019,
+  });
+  await unit(kestrel.id, duplex, {
+    label: 'Unit A furnace',
+    ignition: 'single-rod',
+    fuel: 'natural-gas',
+    controlSupply: '24v',
+    va: 40,
+    year: 2019,
+  });
 
   // The basement furnace's history: its flame signal falls visit after visit as the rod fouls.
   await pastCall({
-    unitId: basement, on: '2021-01-14T08:30:00Z', complaint: 'No heat overnight; thermostat display on.', by: tech,
+    unitId: basement,
+    on: '2021-01-14T08:30:00Z',
+    complaint: 'No heat overnight; thermostat display on.',
+    by: tech,
     script: { 'fuse-output': 0.2 },
     repair: 'Found a chafed thermostat cable shorting R to C at the cabinet entry. Re-routed and sleeved the cable, replaced the 3 A fuse.',
     flameAfter: 5.1,
   });
   await pastCall({
-    unitId: basement, on: '2022-02-03T13:10:00Z', complaint: 'Furnace runs a few minutes then stops; house cold.', by: tech,
+    unitId: basement,
+    on: '2022-02-03T13:10:00Z',
+    complaint: 'Furnace runs a few minutes then stops; house cold.',
+    by: tech,
     script: { 'control-th-input': 0.4, 'high-limit-across': 25.6 },
-    repair: 'High limit open from overheating: filter completely clogged. Replaced the filter, checked the temperature rise, limit reset itself.',
+    repair:
+      'High limit open from overheating: filter completely clogged. Replaced the filter, checked the temperature rise, limit reset itself.',
     flameAfter: 4.2,
   });
   await pastCall({
-    unitId: basement, on: '2023-12-19T09:45:00Z', complaint: 'No heat; control locks out after three tries.', by: tech,
+    unitId: basement,
+    on: '2023-12-19T09:45:00Z',
+    complaint: 'No heat; control locks out after three tries.',
+    by: tech,
     script: { 'flame-signal': 1.7, 'rod-inspect': 'dirty' },
     repair: 'Flame rod coated with a white oxide layer. Cleaned with fine abrasive cloth, checked the ground lead.',
     flameAfter: 3.6,
   });
   await pastCall({
-    unitId: basement, on: '2025-01-08T10:20:00Z', complaint: 'Intermittent no heat, worse on cold mornings.', by: appr,
+    unitId: basement,
+    on: '2025-01-08T10:20:00Z',
+    complaint: 'Intermittent no heat, worse on cold mornings.',
+    by: appr,
     script: { 'flame-signal': 1.2, 'rod-inspect': 'dirty' },
     repair: 'Rod fouled again within a year; replaced the flame rod and asked the customer about the new humidifier nearby.',
     flameAfter: 4.9,
     signedOffBy: tech,
   });
   await pastCall({
-    unitId: unitB, on: '2024-11-02T15:00:00Z', complaint: 'No heat in unit B.', by: appr,
+    unitId: unitB,
+    on: '2024-11-02T15:00:00Z',
+    complaint: 'No heat in unit B.',
+    by: appr,
     script: { 'spark-observe': 'heard-not-seen', 'spark-lead-inspect': 'lead-broken' },
     repair: 'Spark lead broken inside its insulation near the control. Replaced the lead and routed it clear of the sheet-metal edge.',
     flameAfter: 4.4,
@@ -198,11 +262,31 @@ export async function seed(knex: Knex): Promise<void> {
     { unit_id: unitB, complaint: 'Tenant reports no heat after a power cut.', technician_id: null, hoursAgo: 1 },
   ];
   await knex('service_calls').insert(
-    openCalls.map(({ hoursAgo, ...c }) => ({ ...c, company_id: kestrel.id, status: 'open', created_by: lead, opened_at: new Date(Date.now() - hoursAgo * 3600_000) })),
+    openCalls.map(({ hoursAgo, ...c }) => ({
+      ...c,
+      company_id: kestrel.id,
+      status: 'open',
+      created_by: lead,
+      opened_at: new Date(Date.now() - hoursAgo * 3600_000),
+    })),
   );
 
   // ── Ironbark Comfort Services (the second company, for isolation) ───────────────
   const halden = await site(ironbark.id, 'Halden Court flats', '3 Halden Court, Brightwater', 'manager@halden-court.example.test');
-  const haldenUnit = await unit(ironbark.id, halden, { label: 'Boiler-room furnace', ignition: 'two-rod', fuel: 'natural-gas', controlSupply: '24v', va: 40, year: 2014 });
-  await knex('service_calls').insert({ company_id: ironbark.id, unit_id: haldenUnit, complaint: 'No heat on the second floor.', technician_id: otherTech, status: 'open', created_by: otherTech });
+  const haldenUnit = await unit(ironbark.id, halden, {
+    label: 'Boiler-room furnace',
+    ignition: 'two-rod',
+    fuel: 'natural-gas',
+    controlSupply: '24v',
+    va: 40,
+    year: 2014,
+  });
+  await knex('service_calls').insert({
+    company_id: ironbark.id,
+    unit_id: haldenUnit,
+    complaint: 'No heat on the second floor.',
+    technician_id: otherTech,
+    status: 'open',
+    created_by: otherTech,
+  });
 }

@@ -20,19 +20,42 @@ interface Tile {
 // What each role does first. Tiles marked `later` describe features that are not built yet.
 const TILES: Record<Role, Tile[]> = {
   apprentice: [
-    { href: '/calls', title: 'My service calls', text: 'Open the calls assigned to you and follow the guided diagnosis at the unit. A technician signs off your finding.' },
-    { href: '/practice', title: 'Practice', text: 'Practice scenarios your trainer assigns will run here against a simulated furnace.', later: true },
+    {
+      href: '/calls',
+      title: 'My service calls',
+      text: 'Open the calls assigned to you and follow the guided diagnosis at the unit. A technician signs off your finding.',
+    },
+    {
+      href: '/practice',
+      title: 'Practice',
+      text: 'Practice scenarios your trainer assigns will run here against a simulated furnace.',
+      later: true,
+    },
   ],
   technician: [
-    { href: '/calls', title: 'My service calls', text: 'Start a call, run the guided diagnosis, record the repair and its verification, and close it.' },
+    {
+      href: '/calls',
+      title: 'My service calls',
+      text: 'Start a call, run the guided diagnosis, record the repair and its verification, and close it.',
+    },
     { href: '/units', title: 'Units', text: 'Every furnace your company services, with its readings over the years.' },
   ],
   lead: [
     { href: '/calls', title: 'All service calls', text: 'Every call of the company, with where each diagnosis went.' },
-    { href: '/trees', title: 'Fault trees', text: 'Edit, review and publish the company’s fault trees. Authoring comes in a later release; the published default tree is in use.', later: true },
+    {
+      href: '/trees',
+      title: 'Fault trees',
+      text: 'Edit, review and publish the company’s fault trees. Authoring comes in a later release; the published default tree is in use.',
+      later: true,
+    },
   ],
   trainer: [
-    { href: '/practice', title: 'Practice scenarios', text: 'Assign bench faults to apprentices and review their attempts and scores.', later: true },
+    {
+      href: '/practice',
+      title: 'Practice scenarios',
+      text: 'Assign bench faults to apprentices and review their attempts and scores.',
+      later: true,
+    },
   ],
   admin: [
     { href: '/admin/users', title: 'Users', text: 'Add people, change roles, deactivate accounts and end their sessions.' },
@@ -59,7 +82,9 @@ export default async function HomePage({ searchParams }: { searchParams: Promise
             <Link href={tile.href} className="card flex h-full min-h-[8rem] flex-col gap-2 hover:border-copper">
               <span className="flex items-center justify-between gap-2 text-lg font-bold">
                 {tile.title}
-                {tile.later && <span className="rounded-full border border-line px-2 py-0.5 text-xs font-semibold text-muted">coming later</span>}
+                {tile.later && (
+                  <span className="rounded-full border border-line px-2 py-0.5 text-xs font-semibold text-muted">coming later</span>
+                )}
               </span>
               <span className="text-muted">{tile.text}</span>
             </Link>
@@ -84,11 +109,7 @@ async function OpenCalls({ user }: { user: CurrentUser }) {
         <h2 id="open-calls" className="text-lg font-bold">
           {supervisor ? 'Open calls in the company' : 'My open calls'}: <span className="font-mono">{calls.length}</span>
         </h2>
-        {supervisor && unassigned > 0 && (
-          <p className="text-muted">
-            {unassigned} not assigned yet
-          </p>
-        )}
+        {supervisor && unassigned > 0 && <p className="text-muted">{unassigned} not assigned yet</p>}
       </div>
       {shown.length === 0 ? (
         <p className="text-muted">Nothing open. {user.role === 'apprentice' ? '' : 'Start a call from the Service calls page.'}</p>
@@ -96,11 +117,15 @@ async function OpenCalls({ user }: { user: CurrentUser }) {
         <ul className="space-y-2">
           {shown.map((c) => (
             <li key={c.id}>
-              <Link href={`/calls/${c.id}`} className="flex min-h-touch flex-wrap items-center justify-between gap-2 rounded-lg border border-line bg-surface px-3 py-2 hover:border-copper">
+              <Link
+                href={`/calls/${c.id}`}
+                className="flex min-h-touch flex-wrap items-center justify-between gap-2 rounded-lg border border-line bg-surface px-3 py-2 hover:border-copper"
+              >
                 <span>
                   <span className="font-semibold">{c.siteName}</span> · {c.unitLabel}
                   <span className="block text-sm text-muted" suppressHydrationWarning>
-                    Opened {formatDate(c.openedAt)}{supervisor ? ` · ${c.technicianName ?? 'unassigned'}` : ''}
+                    Opened {formatDate(c.openedAt)}
+                    {supervisor ? ` · ${c.technicianName ?? 'unassigned'}` : ''}
                   </span>
                 </span>
                 <CallStatusBadge status={c.status} />

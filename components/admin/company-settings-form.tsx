@@ -52,7 +52,10 @@ export function CompanySettingsForm({ initial, save }: { initial: Output; save: 
               ['metric', 'Metric (mm, Pa)'],
             ] as const
           ).map(([value, label]) => (
-            <label key={value} className="flex min-h-touch cursor-pointer items-center gap-3 rounded-lg border border-line px-4 has-[:checked]:border-copper has-[:checked]:bg-copper-soft">
+            <label
+              key={value}
+              className="flex min-h-touch cursor-pointer items-center gap-3 rounded-lg border border-line px-4 has-[:checked]:border-copper has-[:checked]:bg-copper-soft"
+            >
               <input type="radio" value={value} className="h-5 w-5 accent-[rgb(var(--copper))]" {...register('displayUnits')} />
               {label}
             </label>

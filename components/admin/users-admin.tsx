@@ -55,16 +55,26 @@ export function UsersAdmin({ users, currentUserId, createUser, updateUser }: Pro
         <table className="w-full min-w-[40rem] text-left">
           <thead className="border-b border-line text-sm text-muted">
             <tr>
-              <th scope="col" className="px-4 py-3">Name</th>
-              <th scope="col" className="px-4 py-3">Role</th>
-              <th scope="col" className="px-4 py-3">Status</th>
-              <th scope="col" className="px-4 py-3"><span className="sr-only">Actions</span></th>
+              <th scope="col" className="px-4 py-3">
+                Name
+              </th>
+              <th scope="col" className="px-4 py-3">
+                Role
+              </th>
+              <th scope="col" className="px-4 py-3">
+                Status
+              </th>
+              <th scope="col" className="px-4 py-3">
+                <span className="sr-only">Actions</span>
+              </th>
             </tr>
           </thead>
           <tbody>
             {users.length === 0 && (
               <tr>
-                <td colSpan={4} className="px-4 py-6 text-muted">No users yet. Add the first one below.</td>
+                <td colSpan={4} className="px-4 py-6 text-muted">
+                  No users yet. Add the first one below.
+                </td>
               </tr>
             )}
             {users.map((user) => {
@@ -73,20 +83,33 @@ export function UsersAdmin({ users, currentUserId, createUser, updateUser }: Pro
               return (
                 <tr key={user.id} className={clsx('border-b border-line last:border-0', !user.active && 'text-muted')}>
                   <td className="px-4 py-2">
-                    <div className="font-semibold">{user.name}{self && <span className="ml-2 text-sm font-normal text-muted">(you)</span>}</div>
+                    <div className="font-semibold">
+                      {user.name}
+                      {self && <span className="ml-2 text-sm font-normal text-muted">(you)</span>}
+                    </div>
                     <div className="text-sm text-muted">{user.email}</div>
                   </td>
                   <td className="px-4 py-2">
-                    <label className="sr-only" htmlFor={`role-${user.id}`}>Role of {user.name}</label>
+                    <label className="sr-only" htmlFor={`role-${user.id}`}>
+                      Role of {user.name}
+                    </label>
                     <Select
                       id={`role-${user.id}`}
                       value={user.role}
                       disabled={self || busy}
-                      onChange={(e) => change(user, { role: e.target.value as Role }, `${user.name} is now ${ROLE_LABELS[e.target.value as Role].toLowerCase()}.`)}
+                      onChange={(e) =>
+                        change(
+                          user,
+                          { role: e.target.value as Role },
+                          `${user.name} is now ${ROLE_LABELS[e.target.value as Role].toLowerCase()}.`,
+                        )
+                      }
                       className="min-w-[10rem]"
                     >
                       {ROLES.map((r) => (
-                        <option key={r} value={r}>{ROLE_LABELS[r]}</option>
+                        <option key={r} value={r}>
+                          {ROLE_LABELS[r]}
+                        </option>
                       ))}
                     </Select>
                   </td>
@@ -104,7 +127,11 @@ export function UsersAdmin({ users, currentUserId, createUser, updateUser }: Pro
                           className="btn-secondary text-sm"
                           disabled={busy}
                           onClick={() =>
-                            change(user, { active: !user.active }, user.active ? `${user.name} is deactivated and signed out.` : `${user.name} is active again.`)
+                            change(
+                              user,
+                              { active: !user.active },
+                              user.active ? `${user.name} is deactivated and signed out.` : `${user.name} is active again.`,
+                            )
                           }
                         >
                           {user.active ? 'Deactivate' : 'Reactivate'}
@@ -168,7 +195,9 @@ function CreateUserForm({ onCreate }: { onCreate: (values: CreateOutput) => Prom
 
   return (
     <section aria-labelledby="add-user" className="card max-w-2xl">
-      <h2 id="add-user" className="mb-4 text-xl font-bold">Add a user</h2>
+      <h2 id="add-user" className="mb-4 text-xl font-bold">
+        Add a user
+      </h2>
       <form onSubmit={handleSubmit(onSubmit)} noValidate className="grid gap-4 sm:grid-cols-2">
         <div className="sm:col-span-2">
           <FormMessage message={message} />
@@ -183,7 +212,9 @@ function CreateUserForm({ onCreate }: { onCreate: (values: CreateOutput) => Prom
           {(a11y) => (
             <Select {...a11y} {...register('role')}>
               {ROLES.map((r) => (
-                <option key={r} value={r}>{ROLE_LABELS[r]}</option>
+                <option key={r} value={r}>
+                  {ROLE_LABELS[r]}
+                </option>
               ))}
             </Select>
           )}

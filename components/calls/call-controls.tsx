@@ -93,7 +93,12 @@ type RepairOut = z.output<typeof repairFormSchema>;
 
 export interface RepairRecord {
   repairNotes: string | null;
-  verification: { cycles: number; flameSignal: { text: string; value: number } | null; checks: { text: string; done: boolean }[]; notes?: string } | null;
+  verification: {
+    cycles: number;
+    flameSignal: { text: string; value: number } | null;
+    checks: { text: string; done: boolean }[];
+    notes?: string;
+  } | null;
 }
 
 /** The repair and verification record: what was done, how many heat cycles it ran, the flame signal after, the finding's checks. */

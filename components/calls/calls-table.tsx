@@ -43,7 +43,13 @@ const searchFilter: FilterFn<CallRow> = (row, _columnId, value: string) => {
   return [c.siteName, c.unitLabel, c.complaint, c.siteAddress].some((text) => text.toLowerCase().includes(needle));
 };
 
-const SORT_LABELS: Record<string, string> = { openedAt: 'Opened', site: 'Site / unit', complaint: 'Complaint', technician: 'Technician', status: 'Status' };
+const SORT_LABELS: Record<string, string> = {
+  openedAt: 'Opened',
+  site: 'Site / unit',
+  complaint: 'Complaint',
+  technician: 'Technician',
+  status: 'Status',
+};
 
 export function CallsTable({ initialCalls, initialFilter = {}, technicianChoice, assignees = [] }: Props) {
   const [status, setStatus] = useState<CallStatus | ''>(initialFilter.status ?? '');
@@ -109,7 +115,13 @@ export function CallsTable({ initialCalls, initialFilter = {}, technicianChoice,
           <label htmlFor={searchId} className="label">
             Search
           </label>
-          <TextInput id={searchId} type="search" placeholder="Site, unit or complaint" value={search} onChange={(e) => setSearch(e.target.value)} />
+          <TextInput
+            id={searchId}
+            type="search"
+            placeholder="Site, unit or complaint"
+            value={search}
+            onChange={(e) => setSearch(e.target.value)}
+          />
         </div>
         <div>
           <label htmlFor={`${searchId}-status`} className="label">
@@ -193,9 +205,7 @@ export function CallsTable({ initialCalls, initialFilter = {}, technicianChoice,
           </Link>
         </div>
       )}
-      {data && count === 0 && (data.length > 0 || filtered) && (
-        <p className="card text-muted">No calls match the search and filters.</p>
-      )}
+      {data && count === 0 && (data.length > 0 || filtered) && <p className="card text-muted">No calls match the search and filters.</p>}
 
       {count > 0 && (
         <>

@@ -116,7 +116,8 @@ export function NewCallForm({ sites: initialSites, assignees, me, preselectUnitI
                     <span className="flex min-h-touch flex-col rounded-lg border-2 border-line bg-raised px-4 py-2 peer-checked:border-copper peer-checked:bg-copper-soft peer-focus-visible:outline peer-focus-visible:outline-[3px] peer-focus-visible:outline-copper">
                       <span className="font-semibold">{u.label}</span>
                       <span className="text-sm text-muted">
-                        {IGNITION_LABELS[u.ignition]} · {FUEL_LABELS[u.fuel]} · {u.transformerVa} VA{u.installYear ? ` · ${u.installYear}` : ''}
+                        {IGNITION_LABELS[u.ignition]} · {FUEL_LABELS[u.fuel]} · {u.transformerVa} VA
+                        {u.installYear ? ` · ${u.installYear}` : ''}
                       </span>
                     </span>
                   </label>
@@ -222,7 +223,14 @@ function SitePicker({
         <div className="grid max-h-80 gap-2 overflow-y-auto sm:grid-cols-2">
           {shown.map((s) => (
             <label key={s.id} className="relative block cursor-pointer">
-              <input type="radio" name="site" value={s.id} checked={selected === s.id} onChange={() => onSelect(s.id)} className="peer sr-only" />
+              <input
+                type="radio"
+                name="site"
+                value={s.id}
+                checked={selected === s.id}
+                onChange={() => onSelect(s.id)}
+                className="peer sr-only"
+              />
               <Tick />
               <span className="flex min-h-touch flex-col rounded-lg border-2 border-line bg-raised px-4 py-2 peer-checked:border-copper peer-checked:bg-copper-soft peer-focus-visible:outline peer-focus-visible:outline-[3px] peer-focus-visible:outline-copper">
                 <span className="font-semibold">{s.name}</span>
@@ -254,7 +262,15 @@ function SitePicker({
 type SiteIn = z.input<typeof siteSchema>;
 type SiteOut = z.output<typeof siteSchema>;
 
-function NewSite({ onCancel, onCreated, createSite }: { onCancel: () => void; onCreated: (site: Omit<PickerSite, 'units'>) => void; createSite: Props['createSite'] }) {
+function NewSite({
+  onCancel,
+  onCreated,
+  createSite,
+}: {
+  onCancel: () => void;
+  onCreated: (site: Omit<PickerSite, 'units'>) => void;
+  createSite: Props['createSite'];
+}) {
   const [message, setMessage] = useState<string | null>(null);
   const { register, handleSubmit, formState, setError } = useForm<SiteIn, unknown, SiteOut>({
     resolver: zodResolver(siteSchema),
@@ -278,9 +294,7 @@ function NewSite({ onCancel, onCreated, createSite }: { onCancel: () => void; on
       <FormMessage message={message} />
       <div className="grid gap-3 sm:grid-cols-2">
         <Field label="Site name" error={formState.errors.name?.message}>
-          {(a11y) => (
-<TextInput {...a11y} autoFocus {...register('name')} />
-          )}
+          {(a11y) => <TextInput {...a11y} autoFocus {...register('name')} />}
         </Field>
         <Field label="Address" error={formState.errors.address?.message}>
           {(a11y) => <TextInput {...a11y} {...register('address')} />}
@@ -304,12 +318,28 @@ function NewSite({ onCancel, onCreated, createSite }: { onCancel: () => void; on
 type UnitIn = z.input<typeof unitSchema>;
 type UnitOut = z.output<typeof unitSchema>;
 
-function NewUnit({ siteId, onCreated, createUnit }: { siteId: string; onCreated: (unit: PickerUnit) => void; createUnit: Props['createUnit'] }) {
+function NewUnit({
+  siteId,
+  onCreated,
+  createUnit,
+}: {
+  siteId: string;
+  onCreated: (unit: PickerUnit) => void;
+  createUnit: Props['createUnit'];
+}) {
   const [open, setOpen] = useState(false);
   const [message, setMessage] = useState<string | null>(null);
   const { register, handleSubmit, formState, setError, reset } = useForm<UnitIn, unknown, UnitOut>({
     resolver: zodResolver(unitSchema),
-    defaultValues: { siteId, label: '', ignition: 'two-rod', fuel: 'natural-gas', controlSupply: '24v', transformerVa: 40, installYear: '' },
+    defaultValues: {
+      siteId,
+      label: '',
+      ignition: 'two-rod',
+      fuel: 'natural-gas',
+      controlSupply: '24v',
+      transformerVa: 40,
+      installYear: '',
+    },
   });
   const save = handleSubmit(async (values) => {
     setMessage(null);
@@ -342,7 +372,13 @@ function NewUnit({ siteId, onCreated, createUnit }: { siteId: string; onCreated:
       </Field>
       <Segmented legend="Ignition" error={e.ignition?.message}>
         {(['two-rod', 'single-rod'] as const).map((v) => (
-          <SegmentOption key={v} value={v} label={IGNITION_LABELS[v]} detail={v === 'two-rod' ? 'igniter + flame rod' : 'one rod sparks and senses'} {...register('ignition')} />
+          <SegmentOption
+            key={v}
+            value={v}
+            label={IGNITION_LABELS[v]}
+            detail={v === 'two-rod' ? 'igniter + flame rod' : 'one rod sparks and senses'}
+            {...register('ignition')}
+          />
         ))}
       </Segmented>
       <Segmented legend="Fuel" error={e.fuel?.message}>
@@ -352,7 +388,13 @@ function NewUnit({ siteId, onCreated, createUnit }: { siteId: string; onCreated:
       </Segmented>
       <Segmented legend="Control supply" error={e.controlSupply?.message}>
         {(['24v', 'line'] as const).map((v) => (
-          <SegmentOption key={v} value={v} label={SUPPLY_LABELS[v]} detail={v === '24v' ? 'transformer feeds the control' : '120 VAC to the control'} {...register('controlSupply')} />
+          <SegmentOption
+            key={v}
+            value={v}
+            label={SUPPLY_LABELS[v]}
+            detail={v === '24v' ? 'transformer feeds the control' : '120 VAC to the control'}
+            {...register('controlSupply')}
+          />
         ))}
       </Segmented>
       <div className="grid gap-3 sm:grid-cols-2">

@@ -50,10 +50,18 @@ export function ReadingsTable({ readings, caption = 'Readings' }: { readings: Re
         <caption className="sr-only">{caption}</caption>
         <thead className="border-b border-line text-sm text-muted">
           <tr>
-            <th scope="col" className="w-[38%] py-2 pr-3">Step and test points</th>
-            <th scope="col" className="w-[7.5rem] py-2 pr-3">Value</th>
-            <th scope="col" className="py-2 pr-3">Band</th>
-            <th scope="col" className="w-[8.5rem] py-2">Time</th>
+            <th scope="col" className="w-[38%] py-2 pr-3">
+              Step and test points
+            </th>
+            <th scope="col" className="w-[7.5rem] py-2 pr-3">
+              Value
+            </th>
+            <th scope="col" className="py-2 pr-3">
+              Band
+            </th>
+            <th scope="col" className="w-[8.5rem] py-2">
+              Time
+            </th>
           </tr>
         </thead>
         <tbody>
@@ -61,7 +69,11 @@ export function ReadingsTable({ readings, caption = 'Readings' }: { readings: Re
             <tr key={r.id} className="border-b border-line align-top last:border-0">
               <td className="break-words py-2 pr-3">
                 <span className="font-semibold">{r.stepTitle}</span>
-                {r.points && <span className="block font-mono text-sm text-muted">{r.points[0]} ↔ {r.points[1]}</span>}
+                {r.points && (
+                  <span className="block font-mono text-sm text-muted">
+                    {r.points[0]} ↔ {r.points[1]}
+                  </span>
+                )}
               </td>
               <td className="whitespace-nowrap py-2 pr-3">
                 <Value r={r} />
@@ -80,7 +92,11 @@ export function ReadingsTable({ readings, caption = 'Readings' }: { readings: Re
         {readings.map((r) => (
           <li key={r.id} className="rounded-lg border border-line bg-surface p-3">
             <p className="font-semibold">{r.stepTitle}</p>
-            {r.points && <p className="font-mono text-sm text-muted">{r.points[0]} ↔ {r.points[1]}</p>}
+            {r.points && (
+              <p className="font-mono text-sm text-muted">
+                {r.points[0]} ↔ {r.points[1]}
+              </p>
+            )}
             <p className="mt-1 flex flex-wrap items-baseline justify-between gap-2">
               <span className="text-lg">
                 <Value r={r} />

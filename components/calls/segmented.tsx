@@ -2,15 +2,7 @@ import clsx from 'clsx';
 import { forwardRef, useId, type InputHTMLAttributes } from 'react';
 
 /** A row of large radio buttons for a choice of two or three, easy to hit with gloves on. */
-export function Segmented({
-  legend,
-  error,
-  children,
-}: {
-  legend: string;
-  error?: string;
-  children: React.ReactNode;
-}) {
+export function Segmented({ legend, error, children }: { legend: string; error?: string; children: React.ReactNode }) {
   const id = useId();
   return (
     <fieldset aria-describedby={error ? `${id}-error` : undefined} aria-invalid={Boolean(error) || undefined}>

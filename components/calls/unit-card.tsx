@@ -21,7 +21,12 @@ export function UnitCard({ unit, linkToUnit, heading = 'Unit' }: { unit: UnitCar
     ['Ignition', IGNITION_LABELS[unit.ignition]],
     ['Fuel', FUEL_LABELS[unit.fuel]],
     ['Control supply', SUPPLY_LABELS[unit.controlSupply]],
-    ['Transformer', <span key="va" className="font-mono">{unit.transformerVa} VA</span>],
+    [
+      'Transformer',
+      <span key="va" className="font-mono">
+        {unit.transformerVa} VA
+      </span>,
+    ],
     ['Installed', unit.installYear ?? '—'],
   ];
   return (

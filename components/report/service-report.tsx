@@ -1,5 +1,14 @@
 import { Caution } from '@/components/ui/caution';
-import { DIAGNOSIS_LABELS, formatDate, formatDateTime, formatTime, FUEL_LABELS, IGNITION_LABELS, STATUS_LABELS, SUPPLY_LABELS } from '@/components/calls/format';
+import {
+  DIAGNOSIS_LABELS,
+  formatDate,
+  formatDateTime,
+  formatTime,
+  FUEL_LABELS,
+  IGNITION_LABELS,
+  STATUS_LABELS,
+  SUPPLY_LABELS,
+} from '@/components/calls/format';
 import { Verdict } from '@/components/calls/readings-table';
 import type { CallReport } from '@/lib/server/calls';
 
@@ -160,7 +169,8 @@ export function ServiceReport({ report }: { report: CallReport }) {
               <ul className="ml-5 list-disc">
                 {d.contradictions.map((c, k) => (
                   <li key={k}>
-                    {c.reason}: <span className="font-mono">{c.value}</span> recorded at “{d.steps.find((s) => s.stepId === c.stepId)?.stepTitle ?? c.stepId}”
+                    {c.reason}: <span className="font-mono">{c.value}</span> recorded at “
+                    {d.steps.find((s) => s.stepId === c.stepId)?.stepTitle ?? c.stepId}”
                   </li>
                 ))}
               </ul>

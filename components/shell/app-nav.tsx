@@ -14,7 +14,9 @@ export function AppNav({ items, orientation }: { items: Pick<NavItem, 'href' | '
         className={clsx(
           'flex gap-1',
           // A fading right edge tells a phone user that the row scrolls.
-          orientation === 'column' ? 'flex-col' : 'overflow-x-auto pr-10 [mask-image:linear-gradient(to_right,black_calc(100%-2rem),transparent)]',
+          orientation === 'column'
+            ? 'flex-col'
+            : 'overflow-x-auto pr-10 [mask-image:linear-gradient(to_right,black_calc(100%-2rem),transparent)]',
         )}
       >
         {items.map((item) => (
@@ -24,7 +26,9 @@ export function AppNav({ items, orientation }: { items: Pick<NavItem, 'href' | '
               aria-current={isActive(item.href) ? 'page' : undefined}
               className={clsx(
                 'flex min-h-touch items-center rounded-lg px-4 font-semibold',
-                isActive(item.href) ? 'bg-copper-soft text-ink shadow-[inset_4px_0_0_rgb(var(--copper))]' : 'text-muted hover:bg-sunken hover:text-ink',
+                isActive(item.href)
+                  ? 'bg-copper-soft text-ink shadow-[inset_4px_0_0_rgb(var(--copper))]'
+                  : 'text-muted hover:bg-sunken hover:text-ink',
               )}
             >
               {item.label}

@@ -41,15 +41,20 @@ export const TextInput = forwardRef<HTMLInputElement, InputHTMLAttributes<HTMLIn
   return <input ref={ref} className={clsx('input', className)} {...props} />;
 });
 
-export const Select = forwardRef<HTMLSelectElement, SelectHTMLAttributes<HTMLSelectElement>>(function Select(
-  { className, ...props },
-  ref,
-) {
+export const Select = forwardRef<HTMLSelectElement, SelectHTMLAttributes<HTMLSelectElement>>(function Select({ className, ...props }, ref) {
   return <select ref={ref} className={clsx('input pr-8', className)} {...props} />;
 });
 
 /** A form-level message in a live region that is always there, so screen readers announce it. */
-export function FormMessage({ message, tone = 'error', className }: { message?: string | null; tone?: 'error' | 'ok'; className?: string }) {
+export function FormMessage({
+  message,
+  tone = 'error',
+  className,
+}: {
+  message?: string | null;
+  tone?: 'error' | 'ok';
+  className?: string;
+}) {
   return (
     <div role={tone === 'error' ? 'alert' : 'status'} aria-live="polite" className={className}>
       {message && (

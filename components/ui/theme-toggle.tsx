@@ -23,8 +23,15 @@ export function ThemeToggle() {
   }
 
   return (
-    <button type="button" onClick={toggle} className="btn-quiet px-3" aria-label={theme === 'dark' ? 'Use the light theme' : 'Use the dark theme'}>
-      <span aria-hidden className="text-xl">{theme === 'dark' ? '☀' : '☾'}</span>
+    <button
+      type="button"
+      onClick={toggle}
+      className="btn-quiet px-3"
+      aria-label={theme === 'dark' ? 'Use the light theme' : 'Use the dark theme'}
+    >
+      <span aria-hidden className="text-xl">
+        {theme === 'dark' ? '☀' : '☾'}
+      </span>
       <span className="sr-only sm:not-sr-only sm:text-sm">{theme === 'dark' ? 'Light' : 'Dark'}</span>
     </button>
   );

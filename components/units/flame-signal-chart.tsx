@@ -122,9 +122,15 @@ export function FlameSignalChart({ diagnosis, afterRepair, bands }: Props) {
             <caption className="sr-only">Flame signal readings</caption>
             <thead className="text-sm text-muted">
               <tr>
-                <th scope="col" className="py-1 pr-3">Date</th>
-                <th scope="col" className="py-1 pr-3">When</th>
-                <th scope="col" className="py-1">Flame signal</th>
+                <th scope="col" className="py-1 pr-3">
+                  Date
+                </th>
+                <th scope="col" className="py-1 pr-3">
+                  When
+                </th>
+                <th scope="col" className="py-1">
+                  Flame signal
+                </th>
               </tr>
             </thead>
             <tbody>

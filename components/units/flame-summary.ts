@@ -41,7 +41,11 @@ export function summarizeFlame(diagnosis: FlamePoint[], afterRepair: FlamePoint[
   }
   if (lowLimit !== null && during.length > 0) {
     const low = during.filter((p) => p.value < lowLimit).length;
-    parts.push(low === 0 ? `None was below ${uA(lowLimit)}.` : `${low} of ${during.length} ${during.length === 1 ? 'was' : 'were'} below ${uA(lowLimit)} (getting low).`);
+    parts.push(
+      low === 0
+        ? `None was below ${uA(lowLimit)}.`
+        : `${low} of ${during.length} ${during.length === 1 ? 'was' : 'were'} below ${uA(lowLimit)} (getting low).`,
+    );
   }
   const after = [...afterRepair].sort(byDate);
   if (after.length > 0) {

@@ -60,7 +60,10 @@ export function UnitsList({ sites }: { sites: UnitsListSite[] }) {
               {s.units.map((u) => (
                 <li key={u.id} className="flex flex-wrap items-center justify-between gap-3 rounded-lg border border-line bg-surface p-3">
                   <div>
-                    <Link href={`/units/${u.id}`} className="text-lg font-semibold underline decoration-copper decoration-2 underline-offset-4">
+                    <Link
+                      href={`/units/${u.id}`}
+                      className="text-lg font-semibold underline decoration-copper decoration-2 underline-offset-4"
+                    >
                       {u.label}
                     </Link>
                     <p className="text-sm text-muted" suppressHydrationWarning>

@@ -130,7 +130,13 @@ export function BandGauge({ step, value, unit, caption }: BandGaugeProps) {
       </figcaption>
       <ol className="mt-2 grid gap-1 text-sm sm:grid-cols-2" aria-label="Bands">
         {step.bands.map((b, i) => (
-          <li key={i} className={clsx('flex items-baseline gap-2 rounded px-2 py-1', match?.index === i ? 'bg-sunken font-bold ring-2 ring-ink' : 'text-muted')}>
+          <li
+            key={i}
+            className={clsx(
+              'flex items-baseline gap-2 rounded px-2 py-1',
+              match?.index === i ? 'bg-sunken font-bold ring-2 ring-ink' : 'text-muted',
+            )}
+          >
             <span aria-hidden>{VERDICT_ICON[b.verdict]}</span>
             <span>
               {b.label} <span className="whitespace-nowrap font-mono">({rangeText(step, b, unit)})</span>

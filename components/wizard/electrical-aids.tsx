@@ -108,7 +108,13 @@ export function TransformerLoadAid({ transformerVa }: { transformerVa: number | 
   );
 }
 
-export function ElectricalAids({ aids, transformerVa }: { aids: readonly ('voltage-drop' | 'transformer-load')[]; transformerVa: number | null }) {
+export function ElectricalAids({
+  aids,
+  transformerVa,
+}: {
+  aids: readonly ('voltage-drop' | 'transformer-load')[];
+  transformerVa: number | null;
+}) {
   if (aids.length === 0) return null;
   return (
     <details className="rounded-lg border border-line bg-raised">

@@ -40,21 +40,32 @@ export function FindingScreen({ finding, version, callId, contradictions, needsS
     <div className="flex flex-col gap-5" data-testid="finding">
       <p className="text-sm font-semibold uppercase tracking-wide text-muted">Finding</p>
       {disagree && (
-        <section role="alert" aria-labelledby="contradictions-h" className="rounded-xl border-4 border-double border-ink bg-sunken p-4" data-testid="contradictions">
+        <section
+          role="alert"
+          aria-labelledby="contradictions-h"
+          className="rounded-xl border-4 border-double border-ink bg-sunken p-4"
+          data-testid="contradictions"
+        >
           <h2 id="contradictions-h" className="flex items-center gap-2 text-lg font-bold">
-            <span aria-hidden className="font-mono text-2xl">≠</span>
-            {contradictions.length === 1 ? 'A reading disagrees with this finding' : `${contradictions.length} readings disagree with this finding`}
+            <span aria-hidden className="font-mono text-2xl">
+              ≠
+            </span>
+            {contradictions.length === 1
+              ? 'A reading disagrees with this finding'
+              : `${contradictions.length} readings disagree with this finding`}
           </h2>
           <p className="mb-2 text-base">Check these before you accept it; re-measure, or undo to a step and take it again.</p>
           <ul className="space-y-2">
             {contradictions.map((c, i) => {
               const step = getStep(version, c.stepId);
-              const shown = step?.kind === 'measure' ? formatReading(step.quantity, c.value, undefined, { fraction: true }) : String(c.value);
+              const shown =
+                step?.kind === 'measure' ? formatReading(step.quantity, c.value, undefined, { fraction: true }) : String(c.value);
               return (
                 <li key={i} className="rounded-lg bg-raised px-3 py-2">
                   <p className="font-semibold">{step?.title ?? c.stepId}</p>
                   <p>
-                    Read <span className="font-mono font-semibold">{shown}</span>; this finding expects <span className="font-mono">{expectedText(version, c)}</span>.
+                    Read <span className="font-mono font-semibold">{shown}</span>; this finding expects{' '}
+                    <span className="font-mono">{expectedText(version, c)}</span>.
                   </p>
                   <p className="text-sm text-muted">The finding assumes: {c.reason.charAt(0).toLowerCase() + c.reason.slice(1)}.</p>
                 </li>
@@ -112,7 +123,9 @@ export function FindingScreen({ finding, version, callId, contradictions, needsS
           <p className="mt-2 text-sm text-muted">Record the repair and tick these on the call page.</p>
         </div>
       </section>
-      {contradictions === null && <p className="text-base text-muted">Checking this finding against the readings once every answer is saved…</p>}
+      {contradictions === null && (
+        <p className="text-base text-muted">Checking this finding against the readings once every answer is saved…</p>
+      )}
       {footer}
       <ActionBar hint={disagree ? 'Readings disagree — check them first.' : undefined}>
         <Link href={`/calls/${callId}`} className="btn-primary min-w-[12rem] text-lg">

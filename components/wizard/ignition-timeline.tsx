@@ -2,7 +2,16 @@ import clsx from 'clsx';
 import { DEFAULT_CONTROL_PROFILE, describeSequence, type ControlProfile } from '@/machines/ignition-sequence-machine';
 
 // Steps whose reading depends on when in the control's sequence it is taken.
-export const TIMELINE_STEPS = new Set(['spark-observe', 'valve-voltage', 'control-valve-output', 'inlet-pressure', 'manifold-pressure', 'lp-inlet-pressure', 'lp-manifold-pressure', 'burners-light']);
+export const TIMELINE_STEPS = new Set([
+  'spark-observe',
+  'valve-voltage',
+  'control-valve-output',
+  'inlet-pressure',
+  'manifold-pressure',
+  'lp-inlet-pressure',
+  'lp-manifold-pressure',
+  'burners-light',
+]);
 
 function secondsText(ms: number) {
   return `${Math.round(ms / 100) / 10} s`;
@@ -17,13 +26,17 @@ export function IgnitionTimeline({ profile = DEFAULT_CONTROL_PROFILE }: { profil
     <details className="rounded-lg border border-line bg-raised" open>
       <summary className="flex min-h-touch cursor-pointer items-center px-4 font-semibold">When to measure: the ignition sequence</summary>
       <div className="px-4 pb-4">
-        <p className="mb-3 text-base">
-          The valve is only powered during the trial for ignition: measure within its first seconds.
-        </p>
+        <p className="mb-3 text-base">The valve is only powered during the trial for ignition: measure within its first seconds.</p>
         <ol className="relative space-y-2 border-l-2 border-line pl-4">
           {firstTrial.map((e, i) => (
             <li key={i} className={clsx('relative', e.valvePowered && 'font-semibold')}>
-              <span aria-hidden className={clsx('absolute -left-[1.45rem] top-1.5 h-3 w-3 rounded-full border-2 border-ink', e.valvePowered ? 'bg-ink' : 'bg-raised')} />
+              <span
+                aria-hidden
+                className={clsx(
+                  'absolute -left-[1.45rem] top-1.5 h-3 w-3 rounded-full border-2 border-ink',
+                  e.valvePowered ? 'bg-ink' : 'bg-raised',
+                )}
+              />
               <span className="font-mono text-sm text-muted">
                 t = {secondsText(e.startsAtMs)}
                 {e.endsAtMs !== null ? `–${secondsText(e.endsAtMs)}` : ''}

@@ -19,7 +19,10 @@ export function PathSoFar({ items }: { items: PathItem[] }) {
       <summary className="flex min-h-touch cursor-pointer items-center px-4 font-semibold">Path so far ({items.length})</summary>
       <ol className="divide-y divide-line px-4 pb-2">
         {items.map((item, i) => (
-          <li key={item.clientId} className="grid grid-cols-[2rem_minmax(0,1fr)] gap-x-2 py-2 sm:grid-cols-[2rem_minmax(0,1fr)_minmax(0,1fr)]">
+          <li
+            key={item.clientId}
+            className="grid grid-cols-[2rem_minmax(0,1fr)] gap-x-2 py-2 sm:grid-cols-[2rem_minmax(0,1fr)_minmax(0,1fr)]"
+          >
             <span className="font-mono text-sm text-muted">{i + 1}.</span>
             <span className="font-medium">{item.stepTitle}</span>
             <span className="col-start-2 sm:col-start-3">

@@ -47,7 +47,11 @@ export function ProcedureChecklist({ items, onConfirm, confirmLabel = 'Confirm',
           </ol>
         </fieldset>
       )}
-      <ActionBar hint={items.length > 0 ? <span aria-live="polite">{all ? 'All items ticked.' : `${done} of ${items.length} ticked`}</span> : undefined}>
+      <ActionBar
+        hint={
+          items.length > 0 ? <span aria-live="polite">{all ? 'All items ticked.' : `${done} of ${items.length} ticked`}</span> : undefined
+        }
+      >
         <button type="button" className="btn-primary min-w-[12rem] text-lg" disabled={disabled || !all} onClick={onConfirm}>
           {confirmLabel}
         </button>

@@ -19,7 +19,13 @@ export function UndoLast({ lastTitle, disabled, onUndo }: { lastTitle: string | 
     );
   }
   return (
-    <div role="alertdialog" aria-modal="false" aria-labelledby="undo-title" aria-describedby="undo-desc" className="w-full rounded-lg border-2 border-ink bg-raised p-4">
+    <div
+      role="alertdialog"
+      aria-modal="false"
+      aria-labelledby="undo-title"
+      aria-describedby="undo-desc"
+      className="w-full rounded-lg border-2 border-ink bg-raised p-4"
+    >
       <p id="undo-title" className="font-semibold">
         Undo the last answer?
       </p>

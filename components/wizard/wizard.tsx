@@ -8,7 +8,15 @@ import type { ActionStep, FindingStep, InspectStep, MeasureStep, TreeVersion } f
 import { displayUnitFor, type UnitSystem } from '@/lib/units';
 import { useDiagnosis, type DiagnosisViewJson } from '@/lib/swr/use-diagnosis';
 import { getStep } from '@/machines/diagnosis-machine';
-import { pathItems, syncStatus, wizardMachine, type PendingAnswer, type SaveOutcome, type ServerAnswer, type WizardView } from '@/machines/wizard-machine';
+import {
+  pathItems,
+  syncStatus,
+  wizardMachine,
+  type PendingAnswer,
+  type SaveOutcome,
+  type ServerAnswer,
+  type WizardView,
+} from '@/machines/wizard-machine';
 import { CautionList } from '@/components/ui/caution';
 import { ActionBar } from '@/components/wizard/action-bar';
 import { ElectricalAids } from '@/components/wizard/electrical-aids';
@@ -154,7 +162,11 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
     <div className="space-y-4">
       {finding && <EnergyLine energy={ctx.energy} />}
       <PathSoFar items={items} />
-      <UndoLast lastTitle={items.at(-1)?.stepTitle ?? null} disabled={!snapshot.can({ type: 'answer.undo' })} onUndo={() => send({ type: 'answer.undo' })} />
+      <UndoLast
+        lastTitle={items.at(-1)?.stepTitle ?? null}
+        disabled={!snapshot.can({ type: 'answer.undo' })}
+        onUndo={() => send({ type: 'answer.undo' })}
+      />
     </div>
   );
   const serverAgrees = view && ctx.pending.length === 0 && view.finding?.id === ctx.findingId;
@@ -178,7 +190,11 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
         {ctx.notice && (
           <p className="flex items-start justify-between gap-3 rounded-lg border-2 border-ink bg-sunken px-4 py-3" data-testid="notice">
             <span>{ctx.notice}</span>
-            <button type="button" className="btn-quiet min-h-0 px-2 py-1 text-sm underline" onClick={() => send({ type: 'notice.dismiss' })}>
+            <button
+              type="button"
+              className="btn-quiet min-h-0 px-2 py-1 text-sm underline"
+              onClick={() => send({ type: 'notice.dismiss' })}
+            >
               Dismiss
             </button>
           </p>
@@ -209,7 +225,6 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
       ) : (
         <p>This step is not part of the tree version; reload the page.</p>
       )}
-
     </div>
   );
 }
@@ -244,14 +259,22 @@ function StepScreen({ step, energy, displayUnits, transformerVa, initial, footer
         <EnergyBadge energy={energy} />
       </div>
       {procedure && (
-        <p className="text-sm font-semibold uppercase tracking-wide text-muted">{step.id.startsWith('lock-out--') ? 'Lock-out procedure' : 'Re-energize procedure'}</p>
+        <p className="text-sm font-semibold uppercase tracking-wide text-muted">
+          {step.id.startsWith('lock-out--') ? 'Lock-out procedure' : 'Re-energize procedure'}
+        </p>
       )}
       <CautionList cautions={step.cautions} role={step.cautions.some((c) => c.signal === 'DANGER') ? 'alert' : 'note'} />
       {step.instruction && <p className="text-lg leading-relaxed">{step.instruction}</p>}
-      {step.kind === 'measure' && <MeasureBody step={step} displayUnits={displayUnits} transformerVa={transformerVa} initial={initial} onAnswer={onAnswer} />}
+      {step.kind === 'measure' && (
+        <MeasureBody step={step} displayUnits={displayUnits} transformerVa={transformerVa} initial={initial} onAnswer={onAnswer} />
+      )}
       {step.kind === 'inspect' && <InspectBody step={step} onAnswer={onAnswer} />}
       {step.kind === 'action' && (
-        <ProcedureChecklist items={step.checklist} confirmLabel="Confirm" onConfirm={() => onAnswer({ stepId: step.id, confirmed: true })} />
+        <ProcedureChecklist
+          items={step.checklist}
+          confirmLabel="Confirm"
+          onConfirm={() => onAnswer({ stepId: step.id, confirmed: true })}
+        />
       )}
       {TIMELINE_STEPS.has(step.id) && <IgnitionTimeline />}
       <WhyThisStep why={step.why} />
@@ -324,7 +347,12 @@ function InspectBody({ step, onAnswer }: { step: InspectStep; onAnswer: StepScre
         })}
       </div>
       <ActionBar hint={choice ? undefined : 'Pick what you see.'}>
-        <button type="button" className="btn-primary min-w-[12rem] text-lg" disabled={!choice} onClick={() => choice && onAnswer({ stepId: step.id, choice })}>
+        <button
+          type="button"
+          className="btn-primary min-w-[12rem] text-lg"
+          disabled={!choice}
+          onClick={() => choice && onAnswer({ stepId: step.id, choice })}
+        >
           Choose
         </button>
       </ActionBar>

@@ -28,13 +28,17 @@ export async function openCall({ viewer, input }: { viewer: Viewer; input: CallI
   if (viewer.role === 'technician' || viewer.role === 'apprentice') {
     // Field users open calls for themselves; leads and admins dispatch to anyone.
     if (technicianId && technicianId !== viewer.id) {
-      throw new AppError('forbidden', 'Only a lead or an admin can assign a call to someone else.', { fieldErrors: { technicianId: ['Leave it on yourself.'] } });
+      throw new AppError('forbidden', 'Only a lead or an admin can assign a call to someone else.', {
+        fieldErrors: { technicianId: ['Leave it on yourself.'] },
+      });
     }
     technicianId = viewer.id;
   } else if (technicianId) {
     const assignees = await listAssignees({ companyId: viewer.companyId });
     if (!assignees.some((a: { id: string }) => a.id === technicianId)) {
-      throw new AppError('bad_request', 'That technician is not an active field user of your company.', { fieldErrors: { technicianId: ['Choose someone from the list.'] } });
+      throw new AppError('bad_request', 'That technician is not an active field user of your company.', {
+        fieldErrors: { technicianId: ['Choose someone from the list.'] },
+      });
     }
   }
   return createCall({ viewer, unitId: input.unitId, complaint: input.complaint, technicianId });
@@ -84,14 +88,16 @@ export async function finishCall({ viewer, id, outcome }: { viewer: Viewer; id: 
       throw new AppError('conflict', 'A diagnosis on this call is still in progress: finish it, or refer the call.');
     }
     const unsigned = diagnoses.filter((d) => d.status === 'found' && d.userRole === 'apprentice' && !d.signedOffBy);
-    if (unsigned.length) throw new AppError('conflict', "An apprentice's finding needs a technician's sign-off before the call can be closed.");
+    if (unsigned.length)
+      throw new AppError('conflict', "An apprentice's finding needs a technician's sign-off before the call can be closed.");
     if (!call.repairNotes) throw new AppError('conflict', 'Record the repair and its verification before closing the call.');
   }
   return closeCall({ viewer, id, outcome });
 }
 
 export async function signOff({ viewer, diagnosisId }: { viewer: Viewer; diagnosisId: string }) {
-  if (!['technician', 'lead', 'admin'].includes(viewer.role)) throw new AppError('forbidden', 'A technician, lead or admin signs off a finding.');
+  if (!['technician', 'lead', 'admin'].includes(viewer.role))
+    throw new AppError('forbidden', 'A technician, lead or admin signs off a finding.');
   const diagnosis = await getDiagnosis({ companyId: viewer.companyId, id: diagnosisId });
   await getCall({ viewer, id: diagnosis.callId });
   if (diagnosis.status !== 'found') throw new AppError('conflict', 'Only a diagnosis that reached its finding can be signed off.');
@@ -112,7 +118,11 @@ export async function getUnitWithHistory({ viewer, id }: { viewer: Viewer; id: s
 const DEFAULT_TREE_SLUG = 'no-heat-dsi';
 
 /** The published version a new diagnosis runs: the company's default no-heat tree, else the first published one. */
-export async function getDefaultTreeVersion({ viewer }: { viewer: Viewer }): Promise<{ id: string; title: string; version: number } | null> {
+export async function getDefaultTreeVersion({
+  viewer,
+}: {
+  viewer: Viewer;
+}): Promise<{ id: string; title: string; version: number } | null> {
   const trees = await listTrees({ companyId: viewer.companyId });
   const tree = trees.find((t) => t.slug === DEFAULT_TREE_SLUG && t.published) ?? trees.find((t) => t.published);
   return tree?.published ? { id: tree.published.id, title: tree.title, version: tree.published.version } : null;
@@ -157,13 +167,18 @@ export async function getCallPage({ viewer, id }: { viewer: Viewer; id: string }
   const { call, unit } = await getCallDetail({ viewer, id });
   const site = await getSite({ companyId: viewer.companyId, id: unit.siteId });
   const records = await listDiagnosesForCall({ companyId: viewer.companyId, callId: id });
-  const versions = await versionsOf(viewer.companyId, records.map((d) => d.treeVersionId));
+  const versions = await versionsOf(
+    viewer.companyId,
+    records.map((d) => d.treeVersionId),
+  );
   const answers = await listAnswersForDiagnoses({ companyId: viewer.companyId, diagnosisIds: records.map((d) => d.id) });
   const versionOfDiagnosis = new Map(records.map((d) => [d.id, versions.get(d.treeVersionId)!]));
 
   const diagnoses = records.map((d) => {
     const v = versions.get(d.treeVersionId)!;
-    const finding = d.findingStepId ? v.graph.steps.find((s): s is FindingStep => s.id === d.findingStepId && s.kind === 'finding') : undefined;
+    const finding = d.findingStepId
+      ? v.graph.steps.find((s): s is FindingStep => s.id === d.findingStepId && s.kind === 'finding')
+      : undefined;
     return {
       id: d.id,
       status: d.status,
@@ -242,7 +257,10 @@ export async function getUnitPage({ viewer, id }: { viewer: Viewer; id: string }
   const { unit, readings, calls } = await getUnitWithHistory({ viewer, id });
   const site = await getSite({ companyId: viewer.companyId, id: unit.siteId });
   const diagnoses = (await Promise.all(calls.map((c) => listDiagnosesForCall({ companyId: viewer.companyId, callId: c.id })))).flat();
-  const versions = await versionsOf(viewer.companyId, diagnoses.map((d) => d.treeVersionId));
+  const versions = await versionsOf(
+    viewer.companyId,
+    diagnoses.map((d) => d.treeVersionId),
+  );
   const findingsByCall = new Map<string, string[]>();
   for (const d of diagnoses) {
     if (!d.findingStepId) continue;
@@ -275,7 +293,9 @@ async function flameBands({ viewer }: { viewer: Viewer }) {
   if (!tree) return [];
   const record = await getTreeVersion({ companyId: viewer.companyId, id: tree.id });
   const step = record.graph.steps.find((s) => s.kind === 'measure' && s.quantity === 'udc');
-  return step?.kind === 'measure' ? step.bands.map((b) => ({ from: b.from ?? null, to: b.to ?? null, label: b.label, verdict: b.verdict })) : [];
+  return step?.kind === 'measure'
+    ? step.bands.map((b) => ({ from: b.from ?? null, to: b.to ?? null, label: b.label, verdict: b.verdict }))
+    : [];
 }
 
 /** Units of the company grouped by site, with the date of each unit's last call. */

@@ -2,8 +2,17 @@ import 'server-only';
 import type { Knex } from 'knex';
 import { getCall, setCallStatus, type Viewer } from '@/db/calls';
 import {
-  createDiagnosis, findAnswerByClientId, getDiagnosis, insertAnswer, listAnswersForDiagnoses, listDiagnosesForCall,
-  listPathAnswers, markAnswerUndone, saveAnswerResponse, updateDiagnosisOutcome, type AnswerRecord,
+  createDiagnosis,
+  findAnswerByClientId,
+  getDiagnosis,
+  insertAnswer,
+  listAnswersForDiagnoses,
+  listDiagnosesForCall,
+  listPathAnswers,
+  markAnswerUndone,
+  saveAnswerResponse,
+  updateDiagnosisOutcome,
+  type AnswerRecord,
 } from '@/db/diagnoses';
 import { db } from '@/db/knex';
 import { getTreeVersion, type TreeVersionRecord } from '@/db/trees';
@@ -87,10 +96,13 @@ async function loadDiagnosis(viewer: Viewer, id: string, trx: Knex = db, forUpda
 export async function startDiagnosis({ viewer, callId, treeVersionId }: { viewer: Viewer; callId: string; treeVersionId: string }) {
   assertFieldUser(viewer);
   const call = await getCall({ viewer, id: callId });
-  if (call.status === 'closed' || call.status === 'referred') throw new AppError('conflict', 'This call is closed; start a new call to diagnose again.');
+  if (call.status === 'closed' || call.status === 'referred')
+    throw new AppError('conflict', 'This call is closed; start a new call to diagnose again.');
   const record = await getTreeVersion({ companyId: viewer.companyId, id: treeVersionId });
   if (record.status !== 'published') {
-    throw new AppError('bad_request', 'Only a published tree version can be used for a diagnosis.', { fieldErrors: { treeVersionId: ['Choose a published version.'] } });
+    throw new AppError('bad_request', 'Only a published tree version can be used for a diagnosis.', {
+      fieldErrors: { treeVersionId: ['Choose a published version.'] },
+    });
   }
   const version = machineVersion(record);
   const id = await db.transaction(async (trx) => {
@@ -127,7 +139,17 @@ export async function getDiagnosisView({ viewer, id }: { viewer: Viewer; id: str
 export type DiagnosisView = Awaited<ReturnType<typeof getDiagnosisView>>;
 
 /** Readings of every diagnosis on the call (same tree version) that contradict the finding. */
-async function contradictionsFor({ viewer, callId, treeVersionId, finding }: { viewer: Viewer; callId: string; treeVersionId: string; finding: FindingStep }) {
+async function contradictionsFor({
+  viewer,
+  callId,
+  treeVersionId,
+  finding,
+}: {
+  viewer: Viewer;
+  callId: string;
+  treeVersionId: string;
+  finding: FindingStep;
+}) {
   const diagnoses = (await listDiagnosesForCall({ companyId: viewer.companyId, callId })).filter((d) => d.treeVersionId === treeVersionId);
   const answers = await listAnswersForDiagnoses({ companyId: viewer.companyId, diagnosisIds: diagnoses.map((d) => d.id) });
   const readings = answers
@@ -149,7 +171,9 @@ export async function answerDiagnosis({ viewer, id, input }: { viewer: Viewer; i
     // diagnosis's state; only a well-formed answer to a step that is not current is a 409.
     const step = getStep(version, input.stepId);
     if (!step) {
-      throw new AppError('bad_request', `"${input.stepId}" is not a step of this tree version.`, { fieldErrors: { stepId: ['Unknown step.'] } });
+      throw new AppError('bad_request', `"${input.stepId}" is not a step of this tree version.`, {
+        fieldErrors: { stepId: ['Unknown step.'] },
+      });
     }
     const stored: Parameters<typeof insertAnswer>[0]['answer'] = { clientId: input.clientId, stepId: step.id, stepKind: step.kind };
     const machineAnswer: DiagnosisAnswer = { stepId: step.id };
@@ -168,7 +192,13 @@ export async function answerDiagnosis({ viewer, id, input }: { viewer: Viewer; i
         verdict: evaluation.verdict,
       });
       machineAnswer.value = parsed.value;
-      verdict = { band: evaluation.band.label, outcome: evaluation.outcome, position: evaluation.position, verdict: evaluation.verdict, value: parsed.value };
+      verdict = {
+        band: evaluation.band.label,
+        outcome: evaluation.outcome,
+        position: evaluation.position,
+        verdict: evaluation.verdict,
+        value: parsed.value,
+      };
     } else if (step.kind === 'inspect') {
       const choice = step.choices.find((c) => c.value === input.choice);
       if (!choice) {
@@ -178,14 +208,16 @@ export async function answerDiagnosis({ viewer, id, input }: { viewer: Viewer; i
       stored.choice = choice.value;
       machineAnswer.choice = choice.value;
     } else if (step.kind === 'action') {
-      if (input.confirmed !== true) throw new AppError('bad_request', 'Confirm the step once it is done.', { fieldErrors: { confirmed: ['Confirm the step.'] } });
+      if (input.confirmed !== true)
+        throw new AppError('bad_request', 'Confirm the step once it is done.', { fieldErrors: { confirmed: ['Confirm the step.'] } });
       stored.confirmed = true;
       machineAnswer.confirmed = true;
     } else {
       throw new AppError('conflict', 'A finding is where a diagnosis ends; it takes no answer.');
     }
 
-    if (call.status === 'closed' || call.status === 'referred') throw new AppError('conflict', 'This call is closed; its diagnoses cannot change.');
+    if (call.status === 'closed' || call.status === 'referred')
+      throw new AppError('conflict', 'This call is closed; its diagnoses cannot change.');
     if (diagnosis.status !== 'in_progress') throw new AppError('conflict', 'This diagnosis has ended. Undo the last answer to change it.');
     const answers = await listPathAnswers({ companyId: viewer.companyId, diagnosisId: id }, trx);
     const current = currentStep(replayOrFail(version, answers));
@@ -221,7 +253,8 @@ export interface AnswerResult {
 export async function undoLastAnswer({ viewer, id }: { viewer: Viewer; id: string }) {
   await db.transaction(async (trx) => {
     const { call } = await loadDiagnosis(viewer, id, trx, true);
-    if (call.status === 'closed' || call.status === 'referred') throw new AppError('conflict', 'This call is closed; its diagnoses cannot change.');
+    if (call.status === 'closed' || call.status === 'referred')
+      throw new AppError('conflict', 'This call is closed; its diagnoses cannot change.');
     const answers = await listPathAnswers({ companyId: viewer.companyId, diagnosisId: id }, trx);
     const last = answers.at(-1);
     if (!last) throw new AppError('conflict', 'There is no answer to undo.');

@@ -65,7 +65,10 @@ export function errorResponse(error: unknown): NextResponse {
     );
   }
   console.error(error);
-  return NextResponse.json({ error: { code: 'internal', message: 'Something went wrong on our side. Nothing was changed; try again.' } }, { status: 500 });
+  return NextResponse.json(
+    { error: { code: 'internal', message: 'Something went wrong on our side. Nothing was changed; try again.' } },
+    { status: 500 },
+  );
 }
 
 type RouteContext = { params: Promise<Record<string, string | string[]>> };

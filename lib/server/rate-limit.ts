@@ -11,7 +11,10 @@ const keys = (email: string, address: string) => ({ email: `email:${email.toLowe
 /** Throws 429 with Retry-After when either the e-mail or the client address has failed too often. */
 export async function assertSignInAllowed({ email, address }: { email: string; address: string }): Promise<void> {
   const k = keys(email, address);
-  for (const [key, limit] of [[k.email, PER_EMAIL], [k.address, PER_ADDRESS]] as const) {
+  for (const [key, limit] of [
+    [k.email, PER_EMAIL],
+    [k.address, PER_ADDRESS],
+  ] as const) {
     const { count, oldest } = await countRecentFailures({ key, windowMs: WINDOW_MS });
     if (count >= limit) {
       const retryAfter = oldest ? Math.max(1, Math.ceil((oldest.getTime() + WINDOW_MS - Date.now()) / 1000)) : WINDOW_MS / 1000;

@@ -102,7 +102,8 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'control-line-voltage',
         kind: 'measure',
         title: 'Line voltage at the control',
-        instruction: "Measure between the control's line input and neutral terminals with the blower door switch held closed as the panel would hold it.",
+        instruction:
+          "Measure between the control's line input and neutral terminals with the blower door switch held closed as the panel would hold it.",
         cautions: [LINE_VOLTAGE],
         why: 'Line voltage at the unit does not prove it reaches the control: the door switch, a connector or a wire between them may be open.',
         energy: 'energized',
@@ -170,7 +171,8 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'thermostat-call',
         kind: 'inspect',
         title: 'Is the thermostat calling for heat?',
-        instruction: 'Set the thermostat to heat, a few degrees above room temperature. Does it show a call for heat (display on, heat indicator, a click)?',
+        instruction:
+          'Set the thermostat to heat, a few degrees above room temperature. Does it show a call for heat (display on, heat indicator, a click)?',
         why: 'Without a call (R closed to W) the control has no reason to start.',
         energy: 'any',
         choices: [
@@ -215,7 +217,8 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'high-limit-across',
         kind: 'measure',
         title: 'Voltage across the high limit',
-        instruction: 'With the call on, measure across the two terminals of the high limit switch. A closed switch shows about 0 V; an open one shows about 24 V.',
+        instruction:
+          'With the call on, measure across the two terminals of the high limit switch. A closed switch shows about 0 V; an open one shows about 24 V.',
         cautions: [NO_BYPASS],
         why: 'Measuring across each switch in the series string finds the open one without removing wires.',
         energy: 'energized',
@@ -242,7 +245,8 @@ export const DEFAULT_TREE: DefaultTree = {
           { to: 2, label: 'Continuity: the rollout switch is closed', verdict: 'within', outcome: 'f-safety-circuit-wiring-open' },
           { from: 2, label: 'Open (OL) or high: the rollout switch is open', verdict: 'above', outcome: 'f-tripped-rollout' },
         ],
-        bandsNote: 'Default bands: a closed switch reads a fraction of an ohm, an open one reads OL — common practice, no source. A lead can change them.',
+        bandsNote:
+          'Default bands: a closed switch reads a fraction of an ohm, an open one reads OL — common practice, no source. A lead can change them.',
       },
       // ── Spark ─────────────────────────────────────────────────────────────────
       {
@@ -257,7 +261,11 @@ export const DEFAULT_TREE: DefaultTree = {
         choices: [
           { value: 'at-gap', label: 'Spark jumps the gap at the burner', outcome: 'spark-gap' },
           { value: 'heard-not-seen', label: 'Ticking heard, no spark at the gap', outcome: 'spark-lead-inspect' },
-          { value: 'arcing-elsewhere', label: 'Spark seen jumping to the frame or the burner away from the gap', outcome: 'arcing-inspect' },
+          {
+            value: 'arcing-elsewhere',
+            label: 'Spark seen jumping to the frame or the burner away from the gap',
+            outcome: 'arcing-inspect',
+          },
           { value: 'none', label: 'No spark and no ticking', outcome: 'f-control-not-sparking' },
         ],
       },
@@ -265,7 +273,8 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'spark-lead-inspect',
         kind: 'inspect',
         title: 'Spark lead condition',
-        instruction: 'Disconnect the spark lead at both ends. Flex it along its length and look inside the boots for a broken or burnt conductor and loose end terminals.',
+        instruction:
+          'Disconnect the spark lead at both ends. Flex it along its length and look inside the boots for a broken or burnt conductor and loose end terminals.',
         cautions: [HOT_PARTS],
         why: 'A spark heard but not seen at the gap is jumping a break inside the lead or inside the control.',
         energy: 'locked-out',
@@ -278,7 +287,8 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'arcing-inspect',
         kind: 'inspect',
         title: 'Where is the spark escaping?',
-        instruction: 'Look along the spark lead, its boot and the spark rod ceramic for cracks and carbon tracks, and at the rod for a bend toward the frame.',
+        instruction:
+          'Look along the spark lead, its boot and the spark rod ceramic for cracks and carbon tracks, and at the rod for a bend toward the frame.',
         cautions: [HOT_PARTS],
         why: 'The spark takes the easiest path to ground; a crack or a bent rod gives it one before the gap.',
         energy: 'locked-out',
@@ -292,7 +302,8 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'spark-gap',
         kind: 'measure',
         title: 'Spark gap',
-        instruction: 'Measure the gap between the spark rod and its ground (the ground rod, or the burner on a single-rod design) with a gap gauge or drill shanks.',
+        instruction:
+          'Measure the gap between the spark rod and its ground (the ground rod, or the burner on a single-rod design) with a gap gauge or drill shanks.',
         cautions: [HOT_PARTS],
         why: 'A spark at the gap can still fail to light the gas if the gap is wrong: too wide and it weakens or goes elsewhere, too close and it is short and weak.',
         energy: 'locked-out',
@@ -304,7 +315,7 @@ export const DEFAULT_TREE: DefaultTree = {
           { from: 0.16, label: 'Too wide', verdict: 'above', outcome: 'f-spark-gap-or-rod' },
         ],
         bandsNote:
-          'Default bands around a gap of about 1/8 in (3.2 mm), ±1/32 in — common practice, no source. A lead can change them; the manufacturer\'s gap rules.',
+          "Default bands around a gap of about 1/8 in (3.2 mm), ±1/32 in — common practice, no source. A lead can change them; the manufacturer's gap rules.",
       },
       {
         id: 'rod-condition',
@@ -403,7 +414,7 @@ export const DEFAULT_TREE: DefaultTree = {
           { from: 10.5, label: 'Above the usual natural-gas range: check the fuel', verdict: 'above', outcome: 'manifold-pressure' },
         ],
         bandsNote:
-          'Default bands for natural gas — common practice, no source. A lead can change them; the rating plate and the gas valve\'s data rule.',
+          "Default bands for natural gas — common practice, no source. A lead can change them; the rating plate and the gas valve's data rule.",
       },
       {
         id: 'manifold-pressure',
@@ -412,7 +423,7 @@ export const DEFAULT_TREE: DefaultTree = {
         instruction:
           "Move the manometer to the valve's outlet pressure tap (gas shut off while you move it, leak-test after), then read it during the trial for ignition.",
         cautions: [GAS, SPARK],
-        why: "The outlet pressure shows whether the valve opens and regulates: inlet pressure with no outlet pressure while the valve has 24 V means the valve is not opening.",
+        why: 'The outlet pressure shows whether the valve opens and regulates: inlet pressure with no outlet pressure while the valve has 24 V means the valve is not opening.',
         energy: 'energized',
         quantity: 'pressure',
         points: ['gas valve outlet (manifold) pressure tap', 'atmosphere (manometer open side)'],
@@ -441,7 +452,7 @@ export const DEFAULT_TREE: DefaultTree = {
           { from: 14, label: 'High LP inlet pressure: check the regulator', verdict: 'above', outcome: 'lp-manifold-pressure' },
         ],
         bandsNote:
-          'Default bands for LP supplied at about 11 inWC — common practice, no source. A lead can change them; the rating plate and the gas valve\'s data rule.',
+          "Default bands for LP supplied at about 11 inWC — common practice, no source. A lead can change them; the rating plate and the gas valve's data rule.",
       },
       {
         id: 'lp-manifold-pressure',
@@ -480,7 +491,8 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'burner-inspect',
         kind: 'inspect',
         title: 'Orifices and burner inlets',
-        instruction: 'Remove the burner assembly as the manufacturer describes and look into the orifices and the burner inlets for debris, rust scale, spider webs or insect nests.',
+        instruction:
+          'Remove the burner assembly as the manufacturer describes and look into the orifices and the burner inlets for debris, rust scale, spider webs or insect nests.',
         cautions: [HOT_PARTS, GAS],
         why: 'Gas at the right pressure that never lights is often gas that cannot get out of the orifices or mix with air.',
         energy: 'locked-out',
@@ -494,7 +506,8 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'carry-over',
         kind: 'inspect',
         title: 'Does the flame carry across to the sensing side?',
-        instruction: 'During the trial, watch the flame travel from the burner at the spark rod across every burner to the one at the flame rod.',
+        instruction:
+          'During the trial, watch the flame travel from the burner at the spark rod across every burner to the one at the flame rod.',
         cautions: [SPARK],
         why: 'The flame rod is usually on the far burner: if the flame never gets there, the control cannot prove it.',
         energy: 'energized',
@@ -507,13 +520,13 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'carry-over-inspect',
         kind: 'inspect',
         title: 'Carry-over and far burners',
-        instruction: 'Look at the carry-over (cross-lighting) slots between the burners and at the far burners\' orifices.',
+        instruction: "Look at the carry-over (cross-lighting) slots between the burners and at the far burners' orifices.",
         cautions: [HOT_PARTS],
         why: 'Rust in the carry-over slots or a blocked orifice on a far burner stops the flame short of the rod.',
         energy: 'locked-out',
         choices: [
           { value: 'rusted', label: 'Carry-over rusted, scaled or blocked', outcome: 'f-rusted-carry-over' },
-          { value: 'orifice-blocked', label: 'A far burner\'s orifice or inlet blocked', outcome: 'f-blocked-orifices' },
+          { value: 'orifice-blocked', label: "A far burner's orifice or inlet blocked", outcome: 'f-blocked-orifices' },
           { value: 'clear', label: 'Carry-over and orifices clear', outcome: 'connect-microammeter' },
         ],
       },
@@ -527,7 +540,11 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [ROD_VOLTAGE],
         why: 'Flame current is a few DC microamps; it can only be measured with the meter in series, and the connection must be made with no voltage on the rod.',
         energy: 'locked-out',
-        checklist: ['Meter set to DC µA', 'Meter in series between the control flame-sense terminal and the flame-rod lead', 'Leads routed clear of the burner and the spark lead'],
+        checklist: [
+          'Meter set to DC µA',
+          'Meter in series between the control flame-sense terminal and the flame-rod lead',
+          'Leads routed clear of the burner and the spark lead',
+        ],
         outcome: 'flame-signal',
       },
       {
@@ -546,14 +563,15 @@ export const DEFAULT_TREE: DefaultTree = {
           { from: 2, label: 'Good flame signal', verdict: 'within', outcome: 'f-control-not-sensing' },
         ],
         bandsNote:
-          'Default bands: a few microamps is a good signal, below about 2 µA it is getting low — common practice, no source. The control\'s own minimum is lower and varies; a lead can change the bands and the manufacturer\'s data rule.',
+          "Default bands: a few microamps is a good signal, below about 2 µA it is getting low — common practice, no source. The control's own minimum is lower and varies; a lead can change the bands and the manufacturer's data rule.",
       },
       // ── Rod, ceramic, burner surface and ground path ──────────────────────────
       {
         id: 'rod-inspect',
         kind: 'inspect',
         title: 'Flame rod condition',
-        instruction: 'Remove the flame rod. Look at the metal where the flame touches it, at the ceramic, and at where the rod sits in the flame.',
+        instruction:
+          'Remove the flame rod. Look at the metal where the flame touches it, at the ceramic, and at where the rod sits in the flame.',
         cautions: [HOT_PARTS],
         why: 'An oxide or deposit film on the rod, a cracked ceramic leaking current to ground, or a rod out of the flame are the common causes of a weak signal.',
         energy: 'locked-out',
@@ -592,15 +610,18 @@ export const DEFAULT_TREE: DefaultTree = {
           { to: 2, label: 'Good ground path', verdict: 'within', outcome: 'f-control-not-sensing' },
           { from: 2, label: 'High, unsteady or open ground path', verdict: 'above', outcome: 'f-open-ground-lead' },
         ],
-        bandsNote: 'Default bands: a sound ground path reads a fraction of an ohm and stays steady when wiggled — common practice, no source. A lead can change them.',
+        bandsNote:
+          'Default bands: a sound ground path reads a fraction of an ohm and stays steady when wiggled — common practice, no source. A lead can change them.',
       },
       // ── Findings ──────────────────────────────────────────────────────────────
       {
         id: 'f-no-line-power',
         kind: 'finding',
         title: 'No line power to the unit',
-        explanation: 'Line voltage does not reach the unit: a tripped breaker or blown fuse, the unit service switch off, or an open supply circuit.',
-        remedy: 'Find why power is off before restoring it: reset or replace the overcurrent device only after checking the circuit for a fault; turn on the service switch; have open supply wiring repaired by a licensed electrician.',
+        explanation:
+          'Line voltage does not reach the unit: a tripped breaker or blown fuse, the unit service switch off, or an open supply circuit.',
+        remedy:
+          'Find why power is off before restoring it: reset or replace the overcurrent device only after checking the circuit for a fault; turn on the service switch; have open supply wiring repaired by a licensed electrician.',
         cautions: [LINE_VOLTAGE],
         energy: 'any',
         parts: [],
@@ -612,8 +633,10 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'f-line-voltage-high',
         kind: 'finding',
         title: 'Line voltage high',
-        explanation: 'The supply voltage is above the usual range for a 120 V appliance; controls and transformers may be damaged or shut down.',
-        remedy: 'Do not run the unit on a high supply. Have the supply checked by the utility or a licensed electrician; then recheck the transformer and the control.',
+        explanation:
+          'The supply voltage is above the usual range for a 120 V appliance; controls and transformers may be damaged or shut down.',
+        remedy:
+          'Do not run the unit on a high supply. Have the supply checked by the utility or a licensed electrician; then recheck the transformer and the control.',
         cautions: [LINE_VOLTAGE],
         energy: 'any',
         verification: ['Line voltage at the unit between 108 and 132 VAC', VERIFY_CYCLES],
@@ -624,8 +647,10 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'f-no-power-to-control',
         kind: 'finding',
         title: 'Line power not reaching the control',
-        explanation: 'Line voltage is at the unit but not at the line-powered control: the blower door switch, a connector or the wiring between them is open.',
-        remedy: 'Check the door switch with the door on, the connectors and the wiring from the junction box to the control; repair or replace the open part.',
+        explanation:
+          'Line voltage is at the unit but not at the line-powered control: the blower door switch, a connector or the wiring between them is open.',
+        remedy:
+          'Check the door switch with the door on, the connectors and the wiring from the junction box to the control; repair or replace the open part.',
         cautions: [LINE_VOLTAGE],
         energy: 'any',
         parts: ['Door interlock switch (if open)'],
@@ -640,7 +665,8 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'f-no-power-to-transformer',
         kind: 'finding',
         title: 'Line power not reaching the transformer',
-        explanation: 'Line voltage is at the unit but not on the transformer primary: the door switch, a connector, the control\'s transformer feed (on a line-powered control) or the wiring is open.',
+        explanation:
+          "Line voltage is at the unit but not on the transformer primary: the door switch, a connector, the control's transformer feed (on a line-powered control) or the wiring is open.",
         remedy: 'Trace the primary feed back from the transformer to the supply and repair the open switch, connector or wire.',
         cautions: [LINE_VOLTAGE],
         energy: 'any',
@@ -655,7 +681,8 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'f-open-transformer',
         kind: 'finding',
         title: 'Open control transformer',
-        explanation: 'Line voltage is on the primary but the secondary gives no 24 V: a winding or the transformer\'s internal protection is open.',
+        explanation:
+          "Line voltage is on the primary but the secondary gives no 24 V: a winding or the transformer's internal protection is open.",
         remedy:
           'Replace the transformer with one of the same voltages and at least the same VA rating. Before powering the new one, look for the short that may have burnt the old one (chafed thermostat wire, shorted valve coil).',
         energy: 'any',
@@ -687,8 +714,10 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'f-no-call-for-heat',
         kind: 'finding',
         title: 'No call for heat',
-        explanation: 'The thermostat does not close R to W at the furnace: thermostat set wrong, dead batteries, a failed thermostat, or an open wire between the thermostat and the furnace.',
-        remedy: 'Set the thermostat correctly, replace batteries, then check the wire from the thermostat to W; repair the wire or replace the thermostat.',
+        explanation:
+          'The thermostat does not close R to W at the furnace: thermostat set wrong, dead batteries, a failed thermostat, or an open wire between the thermostat and the furnace.',
+        remedy:
+          'Set the thermostat correctly, replace batteries, then check the wire from the thermostat to W; repair the wire or replace the thermostat.',
         energy: 'any',
         parts: ['Thermostat batteries or thermostat, as found'],
         verification: ['24 V from W to C at the furnace when the thermostat calls', VERIFY_CYCLES],
@@ -702,7 +731,8 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'f-open-high-limit',
         kind: 'finding',
         title: 'Open high limit',
-        explanation: 'The high limit is open: the furnace overheated (blower not running, dirty filter, closed or blocked registers, dirty coil) or the switch has failed open.',
+        explanation:
+          'The high limit is open: the furnace overheated (blower not running, dirty filter, closed or blocked registers, dirty coil) or the switch has failed open.',
         remedy:
           'Find why it overheated: check the blower, the filter, the registers and the airflow through the heat exchanger. Replace the limit only if it is open when cool, with the exact rated part. Never jumper it.',
         cautions: [NO_BYPASS],
@@ -726,7 +756,12 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [ROLLOUT],
         energy: 'any',
         parts: ['Rollout switch of the exact rating (only if it will not reset)'],
-        verification: ['Cause of the rollout found and corrected, and recorded', 'Vent draft and combustion checked', 'No flame rollout watched through several full heat cycles', VERIFY_CYCLES],
+        verification: [
+          'Cause of the rollout found and corrected, and recorded',
+          'Vent draft and combustion checked',
+          'No flame rollout watched through several full heat cycles',
+          VERIFY_CYCLES,
+        ],
         tags: ['safety-circuit', 'combustion'],
         expects: [
           { step: 'control-th-input', to: 18, reason: 'The call did not reach the control' },
@@ -737,8 +772,10 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'f-safety-circuit-wiring-open',
         kind: 'finding',
         title: 'Open wire or connector in the safety circuit',
-        explanation: 'The call reaches the furnace and both safety switches are closed, but 24 V does not reach the control: a wire or connector in the series string is open.',
-        remedy: 'Follow the string from W through each switch to the control thermostat input, measuring as you go; repair the open wire or connector.',
+        explanation:
+          'The call reaches the furnace and both safety switches are closed, but 24 V does not reach the control: a wire or connector in the series string is open.',
+        remedy:
+          'Follow the string from W through each switch to the control thermostat input, measuring as you go; repair the open wire or connector.',
         energy: 'any',
         verification: ['24 V at the control thermostat input with the call on', VERIFY_CYCLES],
         tags: ['safety-circuit', 'wiring'],
@@ -753,7 +790,8 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'f-broken-spark-lead',
         kind: 'finding',
         title: 'Broken spark lead (sparking inside)',
-        explanation: 'The conductor inside the spark lead is broken or burnt, so the spark jumps the break inside the lead instead of the gap.',
+        explanation:
+          'The conductor inside the spark lead is broken or burnt, so the spark jumps the break inside the lead instead of the gap.',
         remedy: 'Replace the spark lead with one of the right length and type, routed away from metal edges and the flame-rod lead.',
         cautions: [SPARK],
         energy: 'any',
@@ -766,7 +804,8 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'f-cracked-lead-insulation',
         kind: 'finding',
         title: 'Cracked spark lead insulation (arcing to the frame)',
-        explanation: 'The spark lead insulation or boot is cracked or carbon-tracked, so the spark goes to the frame before it reaches the gap.',
+        explanation:
+          'The spark lead insulation or boot is cracked or carbon-tracked, so the spark goes to the frame before it reaches the gap.',
         remedy: 'Replace the spark lead and boot; route the new lead away from the cabinet and sharp edges.',
         cautions: [SPARK],
         energy: 'any',
@@ -779,12 +818,18 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'f-spark-gap-or-rod',
         kind: 'finding',
         title: 'Spark gap out of range or spark rod bent',
-        explanation: 'The spark gap is too wide or too close, or the rod is bent so the spark is not in the gas stream or goes to the frame.',
-        remedy: 'Straighten or replace the spark rod and set the gap (about 1/8 in is common; the manufacturer\'s gap rules). Replace a rod that will not hold its position.',
+        explanation:
+          'The spark gap is too wide or too close, or the rod is bent so the spark is not in the gas stream or goes to the frame.',
+        remedy:
+          "Straighten or replace the spark rod and set the gap (about 1/8 in is common; the manufacturer's gap rules). Replace a rod that will not hold its position.",
         cautions: [SPARK],
         energy: 'any',
         parts: ['Spark rod (if it will not hold its gap)'],
-        verification: ['Gap measured within the band after the repair', 'Burners light within the first seconds of the trial', VERIFY_CYCLES],
+        verification: [
+          'Gap measured within the band after the repair',
+          'Burners light within the first seconds of the trial',
+          VERIFY_CYCLES,
+        ],
         tags: ['spark'],
         expects: [{ step: 'control-th-input', from: 18, reason: 'The control has its call, so it should spark' }],
       },
@@ -792,9 +837,10 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'f-control-not-sparking',
         kind: 'finding',
         title: 'Control not sparking at the rod',
-        explanation: 'The control has its 24 V call and the spark lead is sound, but no spark reaches the rod: the control\'s spark circuit has failed or is breaking down inside.',
+        explanation:
+          "The control has its 24 V call and the spark lead is sound, but no spark reaches the rod: the control's spark circuit has failed or is breaking down inside.",
         remedy:
-          'Reset the control once by removing the call for a few seconds to rule out the control\'s own lockout; if it still does not spark, replace the control with one that matches the unit.',
+          "Reset the control once by removing the call for a few seconds to rule out the control's own lockout; if it still does not spark, replace the control with one that matches the unit.",
         cautions: [SPARK],
         energy: 'any',
         parts: ['DSI ignition control matching the unit'],
@@ -821,8 +867,10 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'f-valve-wiring-resistance',
         kind: 'finding',
         title: 'Low valve voltage from wiring resistance',
-        explanation: 'The control puts out 24 V but the valve gets much less: resistance in the wiring or a connection between them (a loose, corroded or burnt terminal, a broken strand).',
-        remedy: 'Clean or replace the terminals and repair or replace the wire between the control and the valve; the voltage-drop aid shows what a wire of that gauge and length should drop.',
+        explanation:
+          'The control puts out 24 V but the valve gets much less: resistance in the wiring or a connection between them (a loose, corroded or burnt terminal, a broken strand).',
+        remedy:
+          'Clean or replace the terminals and repair or replace the wire between the control and the valve; the voltage-drop aid shows what a wire of that gauge and length should drop.',
         energy: 'any',
         parts: ['Valve wiring harness or terminals, as found'],
         verification: ['Valve voltage within about 1 V of the control output during the trial', VERIFY_CYCLES],
@@ -837,7 +885,8 @@ export const DEFAULT_TREE: DefaultTree = {
         kind: 'finding',
         title: 'Gas valve not opening with 24 V',
         explanation: 'The valve has 24 V during the trial and gas at its inlet, but no gas leaves it.',
-        remedy: 'Check that the valve\'s own on/off control is on; if it is, replace the gas valve with the matching part for the fuel, and leak-test every joint.',
+        remedy:
+          "Check that the valve's own on/off control is on; if it is, replace the gas valve with the matching part for the fuel, and leak-test every joint.",
         cautions: [GAS],
         energy: 'any',
         parts: ['Gas valve matching the fuel and the unit'],
@@ -855,8 +904,10 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'f-no-gas-or-low-pressure',
         kind: 'finding',
         title: 'No gas or low gas supply pressure',
-        explanation: 'Gas does not reach the valve at its normal pressure: a closed shutoff, an empty LP tank, a supply or meter problem, or undersized piping that drops when the burners open.',
-        remedy: 'Open closed shutoffs; have the LP tank filled or the utility check the meter and supply; have undersized piping corrected. Purge air per the gas code before lighting.',
+        explanation:
+          'Gas does not reach the valve at its normal pressure: a closed shutoff, an empty LP tank, a supply or meter problem, or undersized piping that drops when the burners open.',
+        remedy:
+          'Open closed shutoffs; have the LP tank filled or the utility check the meter and supply; have undersized piping corrected. Purge air per the gas code before lighting.',
         cautions: [GAS],
         energy: 'any',
         verification: ['Inlet pressure within the band, steady when the burners fire', VERIFY_CYCLES],
@@ -870,8 +921,9 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'f-manifold-pressure-low',
         kind: 'finding',
         title: 'Manifold pressure low',
-        explanation: 'The supply is good but the valve delivers less than its set pressure: the regulator is set low or failing, so the flame is weak and may not carry across or hold the rod.',
-        remedy: 'Set the manifold pressure to the rating plate with the valve\'s regulator; replace the valve if it will not regulate.',
+        explanation:
+          'The supply is good but the valve delivers less than its set pressure: the regulator is set low or failing, so the flame is weak and may not carry across or hold the rod.',
+        remedy: "Set the manifold pressure to the rating plate with the valve's regulator; replace the valve if it will not regulate.",
         cautions: [GAS],
         energy: 'any',
         parts: ['Gas valve (if it will not regulate)'],
@@ -888,8 +940,10 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'f-manifold-pressure-high',
         kind: 'finding',
         title: 'Manifold pressure high (over-firing)',
-        explanation: 'The valve delivers more than the usual setting: the flame can lift off the burner and the rod, and over-firing can overheat the heat exchanger and trip the rollout switch.',
-        remedy: 'Set the manifold pressure to the rating plate; check the orifices match the fuel; replace the valve if it will not regulate.',
+        explanation:
+          'The valve delivers more than the usual setting: the flame can lift off the burner and the rod, and over-firing can overheat the heat exchanger and trip the rollout switch.',
+        remedy:
+          'Set the manifold pressure to the rating plate; check the orifices match the fuel; replace the valve if it will not regulate.',
         cautions: [GAS],
         energy: 'any',
         parts: ['Gas valve (if it will not regulate)'],
@@ -904,8 +958,10 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'f-blocked-orifices',
         kind: 'finding',
         title: 'Blocked orifices or burner inlets',
-        explanation: 'Gas at the right pressure cannot get out of the orifices or mix in the burner: debris, rust scale, spider webs or insect nests.',
-        remedy: 'Clean the orifices with a soft tool that does not enlarge them, blow out the burners and their inlets; replace damaged orifices with the size for the fuel.',
+        explanation:
+          'Gas at the right pressure cannot get out of the orifices or mix in the burner: debris, rust scale, spider webs or insect nests.',
+        remedy:
+          'Clean the orifices with a soft tool that does not enlarge them, blow out the burners and their inlets; replace damaged orifices with the size for the fuel.',
         cautions: [GAS],
         energy: 'any',
         parts: ['Orifices of the size for the fuel (if damaged)'],
@@ -919,7 +975,8 @@ export const DEFAULT_TREE: DefaultTree = {
         title: 'Burners do not light: not isolated by this tree',
         explanation:
           'Spark, valve voltage, gas pressure and orifices all check out, yet the burners do not light. The cause is outside what this tree isolates (for example the wrong orifices for the fuel or spark timing).',
-        remedy: 'Recheck the steps, compare the orifices with the fuel on the rating plate, and escalate to a lead or the manufacturer\'s technical support.',
+        remedy:
+          "Recheck the steps, compare the orifices with the fuel on the rating plate, and escalate to a lead or the manufacturer's technical support.",
         energy: 'any',
         verification: ['Cause found and recorded by the person it was escalated to', VERIFY_CYCLES],
         tags: ['escalate'],
@@ -932,8 +989,10 @@ export const DEFAULT_TREE: DefaultTree = {
         id: 'f-rusted-carry-over',
         kind: 'finding',
         title: 'Rusted carry-over',
-        explanation: 'Rust or scale in the cross-lighting slots stops the flame from travelling across the burners to the flame rod, so the control never sees flame.',
-        remedy: 'Clean the carry-over slots and the burners with a wire brush; replace burners that are rusted through. Look for the water source (condensate, vent, humidifier) that rusted them.',
+        explanation:
+          'Rust or scale in the cross-lighting slots stops the flame from travelling across the burners to the flame rod, so the control never sees flame.',
+        remedy:
+          'Clean the carry-over slots and the burners with a wire brush; replace burners that are rusted through. Look for the water source (condensate, vent, humidifier) that rusted them.',
         energy: 'any',
         parts: ['Burners (if rusted through)'],
         verification: ['Flame carries across every burner within a second or two', 'Flame signal in the good band', VERIFY_CYCLES],
@@ -945,7 +1004,8 @@ export const DEFAULT_TREE: DefaultTree = {
         kind: 'finding',
         title: 'Dirty or oxidized flame rod',
         explanation: 'A film of oxide or deposits on the flame rod resists the small flame current, so the signal is low or absent.',
-        remedy: 'Clean the rod with fine abrasive cloth or a fine abrasive pad — not soap-filled steel wool — and wipe it; replace the rod if it is pitted or will not clean.',
+        remedy:
+          'Clean the rod with fine abrasive cloth or a fine abrasive pad — not soap-filled steel wool — and wipe it; replace the rod if it is pitted or will not clean.',
         energy: 'any',
         parts: ['Flame rod (if pitted)'],
         verification: ['Flame signal after the repair in the good band (2 µA or more)', VERIFY_CYCLES],
@@ -958,7 +1018,7 @@ export const DEFAULT_TREE: DefaultTree = {
         title: 'Cracked rod ceramic',
         explanation:
           'The ceramic insulator of a rod is cracked: on the spark rod the spark leaks to ground through it; on the flame rod the flame current leaks to ground without passing through the flame, and the signal is low.',
-        remedy: 'Replace the rod (or the rod assembly) and set it to the manufacturer\'s position and gap.',
+        remedy: "Replace the rod (or the rod assembly) and set it to the manufacturer's position and gap.",
         energy: 'any',
         parts: ['Spark rod or flame rod, as found'],
         verification: ['Spark at the gap on every trial', 'Flame signal after the repair in the good band (2 µA or more)', VERIFY_CYCLES],
@@ -970,7 +1030,7 @@ export const DEFAULT_TREE: DefaultTree = {
         kind: 'finding',
         title: 'Flame rod bent or out of the flame',
         explanation: 'The flame rod is not where the flame envelops it, so little current flows.',
-        remedy: 'Set the rod back into the flame at the manufacturer\'s position, or replace it if bent or burnt.',
+        remedy: "Set the rod back into the flame at the manufacturer's position, or replace it if bent or burnt.",
         energy: 'any',
         parts: ['Flame rod (if bent or burnt)'],
         verification: ['Flame signal after the repair in the good band (2 µA or more)', VERIFY_CYCLES],
@@ -982,7 +1042,7 @@ export const DEFAULT_TREE: DefaultTree = {
         kind: 'finding',
         title: 'Rust on the burner surface under the flame',
         explanation: 'The grounded burner surface the flame touches is rusted or scaled, so the flame current has a poor return to ground.',
-        remedy: 'Clean the burner surface to bare metal around the rod\'s flame, or replace the burner.',
+        remedy: "Clean the burner surface to bare metal around the rod's flame, or replace the burner.",
         energy: 'any',
         parts: ['Burner (if rusted through)'],
         verification: ['Flame signal after the repair in the good band (2 µA or more)', VERIFY_CYCLES],
@@ -997,7 +1057,11 @@ export const DEFAULT_TREE: DefaultTree = {
         remedy: 'Clean and tighten the ground connections at the burner and the control; replace a broken ground lead.',
         energy: 'any',
         parts: ['Ground lead (if broken)'],
-        verification: ['Ground path a fraction of an ohm, steady when wiggled', 'Flame signal after the repair in the good band (2 µA or more)', VERIFY_CYCLES],
+        verification: [
+          'Ground path a fraction of an ohm, steady when wiggled',
+          'Flame signal after the repair in the good band (2 µA or more)',
+          VERIFY_CYCLES,
+        ],
         tags: ['flame-signal', 'wiring'],
         expects: [
           { step: 'flame-signal', to: 2, reason: 'An open return gives a low or no signal' },
@@ -1010,10 +1074,15 @@ export const DEFAULT_TREE: DefaultTree = {
         title: 'Control not sensing a good flame signal',
         explanation:
           'Everything upstream is proven — power, call, safety circuit, spark, valve, gas, carry-over, rod and ground path — yet the control does not hold the flame: its flame-sensing circuit has failed.',
-        remedy: 'Confirm the rod lead is connected to the right terminal and the control is grounded to the cabinet, then replace the control with one that matches the unit.',
+        remedy:
+          'Confirm the rod lead is connected to the right terminal and the control is grounded to the cabinet, then replace the control with one that matches the unit.',
         energy: 'any',
         parts: ['DSI ignition control matching the unit'],
-        verification: ['Burners stay lit past the flame-proving window on every trial', 'Flame signal in the good band (2 µA or more)', VERIFY_CYCLES],
+        verification: [
+          'Burners stay lit past the flame-proving window on every trial',
+          'Flame signal in the good band (2 µA or more)',
+          VERIFY_CYCLES,
+        ],
         tags: ['flame-signal', 'control'],
         expects: [
           { step: 'control-th-input', from: 18, reason: 'The control has its call' },

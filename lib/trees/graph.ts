@@ -2,10 +2,7 @@
 import type { Step, TreeGraph } from '@/lib/trees/schema';
 
 /** How an edge is chosen: a band of a measure step, a choice of an inspect step, or a confirmation. */
-export type EdgeVia =
-  | { kind: 'band'; index: number }
-  | { kind: 'choice'; value: string }
-  | { kind: 'confirm' };
+export type EdgeVia = { kind: 'band'; index: number } | { kind: 'choice'; value: string } | { kind: 'confirm' };
 
 export interface Edge {
   from: string;

@@ -32,9 +32,7 @@ export const SIGNAL_WORDS = ['DANGER', 'WARNING', 'CAUTION', 'NOTICE'] as const;
 export const signalWordSchema = z.enum(SIGNAL_WORDS);
 export type SignalWord = z.infer<typeof signalWordSchema>;
 
-export const stepIdSchema = z
-  .string()
-  .regex(/^[a-z0-9][a-z0-9-]{0,62}$/, 'Step ids are lower-case letters, digits and dashes');
+export const stepIdSchema = z.string().regex(/^[a-z0-9][a-z0-9-]{0,62}$/, 'Step ids are lower-case letters, digits and dashes');
 
 export const cautionSchema = z.object({
   signal: signalWordSchema,
@@ -125,12 +123,7 @@ export const findingStepSchema = z.object({
   expects: z.array(expectationSchema).default([]),
 });
 
-export const stepSchema = z.discriminatedUnion('kind', [
-  measureStepSchema,
-  inspectStepSchema,
-  actionStepSchema,
-  findingStepSchema,
-]);
+export const stepSchema = z.discriminatedUnion('kind', [measureStepSchema, inspectStepSchema, actionStepSchema, findingStepSchema]);
 
 export const treeGraphSchema = z.object({
   start: stepIdSchema,

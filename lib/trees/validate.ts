@@ -74,12 +74,18 @@ export function checkGraph(graph: TreeGraph): GraphProblem[] {
         if (!target) {
           problems.push({ stepId: step.id, message: `Finding "${step.id}" expects a reading of "${exp.step}", which does not exist` });
         } else if (target.kind !== 'measure') {
-          problems.push({ stepId: step.id, message: `Finding "${step.id}" expects a reading of "${exp.step}", which is not a measure step` });
+          problems.push({
+            stepId: step.id,
+            message: `Finding "${step.id}" expects a reading of "${exp.step}", which is not a measure step`,
+          });
         }
         if (exp.from === undefined && exp.to === undefined) {
           problems.push({ stepId: step.id, message: `Finding "${step.id}" expects "${exp.step}" without a limit` });
         } else if (exp.from !== undefined && exp.to !== undefined && exp.from >= exp.to) {
-          problems.push({ stepId: step.id, message: `Finding "${step.id}" expects "${exp.step}" between ${exp.from} and ${exp.to}, an empty range` });
+          problems.push({
+            stepId: step.id,
+            message: `Finding "${step.id}" expects "${exp.step}" between ${exp.from} and ${exp.to}, an empty range`,
+          });
         }
       }
     }

@@ -6,7 +6,14 @@ export const siteSchema = z.object({
   name: z.string({ error: 'Enter the site name.' }).trim().min(1, { error: 'Enter the site name.' }).max(160),
   address: z.string({ error: 'Enter the address.' }).trim().min(1, { error: 'Enter the address.' }).max(300),
   contactEmail: z
-    .union([z.literal(''), z.string().trim().toLowerCase().pipe(z.email({ error: 'Enter a valid e-mail address.' }))])
+    .union([
+      z.literal(''),
+      z
+        .string()
+        .trim()
+        .toLowerCase()
+        .pipe(z.email({ error: 'Enter a valid e-mail address.' })),
+    ])
     .optional()
     .transform((v) => (v ? v : null)),
 });
@@ -26,7 +33,15 @@ export const unitSchema = z.object({
     .min(10, { error: 'A control transformer is at least 10 VA.' })
     .max(500, { error: 'Control transformers above 500 VA are not furnace controls.' }),
   installYear: z
-    .union([z.literal(''), z.null(), z.coerce.number().int({ error: 'Enter a year.' }).min(1950, { error: 'Enter a year from 1950 on.' }).max(thisYear, { error: 'The install year cannot be in the future.' })])
+    .union([
+      z.literal(''),
+      z.null(),
+      z.coerce
+        .number()
+        .int({ error: 'Enter a year.' })
+        .min(1950, { error: 'Enter a year from 1950 on.' })
+        .max(thisYear, { error: 'The install year cannot be in the future.' }),
+    ])
     .optional()
     .transform((v) => (v === '' || v === undefined ? null : v)),
 });
@@ -67,7 +82,10 @@ export const repairSchema = z.object({
   repairNotes: z.string().trim().min(1, { error: 'Describe the repair.' }).max(4000),
   cycles: z.coerce.number().int().min(0).max(50, { error: 'At most 50 cycles.' }),
   flameSignal: z.string().trim().max(40).optional(),
-  checks: z.array(z.object({ text: z.string().max(300), done: z.boolean() })).max(30).default([]),
+  checks: z
+    .array(z.object({ text: z.string().max(300), done: z.boolean() }))
+    .max(30)
+    .default([]),
   notes: z.string().trim().max(2000).optional(),
 });
 export type RepairInput = z.infer<typeof repairSchema>;

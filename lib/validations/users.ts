@@ -1,11 +1,19 @@
 import { z } from 'zod';
 import { ROLES } from '@/lib/roles';
 
-const name = z.string({ error: 'Enter a name.' }).trim().min(1, { error: 'Enter a name.' }).max(120, { error: 'Keep the name under 120 characters.' });
+const name = z
+  .string({ error: 'Enter a name.' })
+  .trim()
+  .min(1, { error: 'Enter a name.' })
+  .max(120, { error: 'Keep the name under 120 characters.' });
 const role = z.enum(ROLES, { error: `Role must be one of: ${ROLES.join(', ')}.` });
 
 export const createUserSchema = z.object({
-  email: z.string({ error: 'Enter an e-mail address.' }).trim().toLowerCase().pipe(z.email({ error: 'Enter a valid e-mail address.' })),
+  email: z
+    .string({ error: 'Enter an e-mail address.' })
+    .trim()
+    .toLowerCase()
+    .pipe(z.email({ error: 'Enter a valid e-mail address.' })),
   name,
   role,
   password: z
@@ -28,7 +36,11 @@ export type UpdateUserInput = z.infer<typeof updateUserSchema>;
 
 export const companySettingsSchema = z.object({
   name: z.string().trim().min(1, { error: 'Enter the company name.' }).max(120),
-  officeEmail: z.string().trim().toLowerCase().pipe(z.email({ error: 'Enter a valid e-mail address.' })),
+  officeEmail: z
+    .string()
+    .trim()
+    .toLowerCase()
+    .pipe(z.email({ error: 'Enter a valid e-mail address.' })),
   displayUnits: z.enum(['us', 'metric'], { error: 'Choose US customary or metric.' }),
 });
 export type CompanySettingsInput = z.infer<typeof companySettingsSchema>;

@@ -76,7 +76,9 @@ describe('SignInForm', () => {
   });
 
   it('goes home after a successful sign-in', async () => {
-    fetchMock.mockResolvedValueOnce(json(200, { id: 'x', email: 'lead@demo.test', name: 'L', role: 'lead', company: { id: 'c', name: 'C' } }));
+    fetchMock.mockResolvedValueOnce(
+      json(200, { id: 'x', email: 'lead@demo.test', name: 'L', role: 'lead', company: { id: 'c', name: 'C' } }),
+    );
     const user = userEvent.setup();
     render(<SignInForm />);
     await user.type(screen.getByLabelText('E-mail'), 'lead@demo.test');

@@ -31,7 +31,10 @@ async function publicTables(): Promise<string[]> {
   const rows: { table_name: string }[] = await db('information_schema.tables')
     .where({ table_schema: 'public', table_type: 'BASE TABLE' })
     .select('table_name');
-  return rows.map((r) => r.table_name).filter((name) => !name.startsWith('knex_migrations')).sort();
+  return rows
+    .map((r) => r.table_name)
+    .filter((name) => !name.startsWith('knex_migrations'))
+    .sort();
 }
 
 describe('migrations', () => {
@@ -64,16 +67,22 @@ describe('migrations', () => {
   });
 
   it('enforces the user constraints the application relies on', async () => {
-    const [company] = await db('companies').insert({ name: 'Scratch Co', office_email: 'office@scratch.test' }).returning(['id', 'display_units']);
+    const [company] = await db('companies')
+      .insert({ name: 'Scratch Co', office_email: 'office@scratch.test' })
+      .returning(['id', 'display_units']);
     expect(company.display_units).toBe('us');
     const user = { company_id: company.id, name: 'A', role: 'technician', password_hash: 'x' };
-    const [created] = await db('users').insert({ ...user, email: 'Same@Scratch.test' }).returning(['active', 'session_version']);
+    const [created] = await db('users')
+      .insert({ ...user, email: 'Same@Scratch.test' })
+      .returning(['active', 'session_version']);
     expect(created).toEqual({ active: true, session_version: 1 });
     // An e-mail is unique regardless of case.
     await expect(db('users').insert({ ...user, email: 'same@scratch.TEST' })).rejects.toMatchObject({ code: '23505' });
     // Only the five roles.
     await expect(db('users').insert({ ...user, email: 'b@scratch.test', role: 'owner' })).rejects.toMatchObject({ code: '23514' });
-    await expect(db('companies').insert({ name: 'X', office_email: 'x@x.test', display_units: 'imperial' })).rejects.toMatchObject({ code: '23514' });
+    await expect(db('companies').insert({ name: 'X', office_email: 'x@x.test', display_units: 'imperial' })).rejects.toMatchObject({
+      code: '23514',
+    });
     // Deleting a company removes its users.
     await db('companies').where({ id: company.id }).delete();
     expect(await db('users').count<{ count: string }[]>('* as count')).toEqual([{ count: '0' }]);

@@ -22,7 +22,10 @@ async function inRolledBackTransaction(fn: (trx: typeof db) => Promise<void>) {
 }
 
 async function refused(promise: Promise<unknown>): Promise<string> {
-  const error = await promise.then(() => null, (e: Error) => e);
+  const error = await promise.then(
+    () => null,
+    (e: Error) => e,
+  );
   expect(error, 'the database should have refused').toBeInstanceOf(Error);
   return (error as Error).message;
 }
@@ -54,7 +57,10 @@ describe('the default tree', () => {
   it("answers not_found for another company's version", async () => {
     const [a, b] = companies;
     const tree = (await listTrees({ companyId: a.id })).find((t) => t.slug === DEFAULT_TREE.slug)!;
-    const error = await getTreeVersion({ companyId: b.id, id: tree.published!.id }).then(() => null, (e) => e);
+    const error = await getTreeVersion({ companyId: b.id, id: tree.published!.id }).then(
+      () => null,
+      (e) => e,
+    );
     expect(error).toBeInstanceOf(AppError);
     expect((error as AppError).code).toBe('not_found');
   });
@@ -69,7 +75,13 @@ describe('published versions never change', () => {
 
   it('refuses a change of graph, number or publication time', async () => {
     await inRolledBackTransaction(async (trx) => {
-      expect(await refused(trx('tree_versions').where({ id: versionId }).update({ graph: JSON.stringify({ start: 'x', steps: [] }) }))).toMatch(/published and cannot change/);
+      expect(
+        await refused(
+          trx('tree_versions')
+            .where({ id: versionId })
+            .update({ graph: JSON.stringify({ start: 'x', steps: [] }) }),
+        ),
+      ).toMatch(/published and cannot change/);
     });
     await inRolledBackTransaction(async (trx) => {
       expect(await refused(trx('tree_versions').where({ id: versionId }).update({ version: 99 }))).toMatch(/cannot change/);
@@ -95,9 +107,17 @@ describe('published versions never change', () => {
     await inRolledBackTransaction(async (trx) => {
       const tree = await trx('fault_trees').where({ company_id: companies[0].id, slug: DEFAULT_TREE.slug }).first('id');
       const [draft] = await trx('tree_versions')
-        .insert({ company_id: companies[0].id, tree_id: tree.id, version: 1000 + Math.floor(Math.random() * 1000), status: 'draft', graph: JSON.stringify(DEFAULT_TREE_GRAPH) })
+        .insert({
+          company_id: companies[0].id,
+          tree_id: tree.id,
+          version: 1000 + Math.floor(Math.random() * 1000),
+          status: 'draft',
+          graph: JSON.stringify(DEFAULT_TREE_GRAPH),
+        })
         .returning('id');
-      await trx('tree_versions').where({ id: draft.id }).update({ graph: JSON.stringify({ ...DEFAULT_TREE_GRAPH, start: 'control-supply' }) });
+      await trx('tree_versions')
+        .where({ id: draft.id })
+        .update({ graph: JSON.stringify({ ...DEFAULT_TREE_GRAPH, start: 'control-supply' }) });
       await trx('tree_versions').where({ id: draft.id }).delete();
     });
   });
@@ -110,7 +130,9 @@ describe('answers', () => {
       const version = await trx('tree_versions').where({ company_id: company, status: 'published' }).first('id');
       const unit = await trx('units').where({ company_id: company }).first('id');
       const [call] = await trx('service_calls').insert({ company_id: company, unit_id: unit.id, complaint: 'db test' }).returning('id');
-      const [diagnosis] = await trx('diagnoses').insert({ company_id: company, call_id: call.id, tree_version_id: version.id }).returning('id');
+      const [diagnosis] = await trx('diagnoses')
+        .insert({ company_id: company, call_id: call.id, tree_version_id: version.id })
+        .returning('id');
       const clientId = randomUUID();
       const row = { company_id: company, diagnosis_id: diagnosis.id, client_id: clientId, step_id: 'line-voltage', step_kind: 'measure' };
       await trx('answers').insert({ ...row, seq: 1 });

@@ -11,7 +11,9 @@ let companyA: string;
 let companyB: string;
 
 async function makeCompany(name: string): Promise<string> {
-  const [row] = await db('companies').insert({ name, office_email: `office-${tag}@${name.toLowerCase()}.test` }).returning('id');
+  const [row] = await db('companies')
+    .insert({ name, office_email: `office-${tag}@${name.toLowerCase()}.test` })
+    .returning('id');
   return row.id;
 }
 
@@ -40,8 +42,21 @@ afterAll(async () => {
 
 describe('createUser', () => {
   it('stores the user with a lower-cased e-mail, active, at session version 1', async () => {
-    const user = await createUser({ companyId: companyA, email: `Mixed.Case-${tag}@Users-Test.TEST`, name: 'Mixed Case', role: 'lead', passwordHash: 'h' });
-    expect(user).toMatchObject({ companyId: companyA, email: `mixed.case-${tag}@users-test.test`, name: 'Mixed Case', role: 'lead', active: true, sessionVersion: 1 });
+    const user = await createUser({
+      companyId: companyA,
+      email: `Mixed.Case-${tag}@Users-Test.TEST`,
+      name: 'Mixed Case',
+      role: 'lead',
+      passwordHash: 'h',
+    });
+    expect(user).toMatchObject({
+      companyId: companyA,
+      email: `mixed.case-${tag}@users-test.test`,
+      name: 'Mixed Case',
+      role: 'lead',
+      active: true,
+      sessionVersion: 1,
+    });
     expect(user.id).toMatch(/^[0-9a-f-]{36}$/);
     expect(user.createdAt).toBeInstanceOf(Date);
     // The hash never comes back from the general queries.
@@ -58,7 +73,11 @@ describe('createUser', () => {
     expect(error.code).toBe('conflict');
     expect(error.status).toBe(409);
     expect(error.fieldErrors?.email).toEqual(['A user with that e-mail address already exists.']);
-    expect(await db('users').whereRaw('lower(email) = ?', [`dupe-${tag}@users-test.test`]).count<{ count: string }[]>('* as count')).toEqual([{ count: '1' }]);
+    expect(
+      await db('users')
+        .whereRaw('lower(email) = ?', [`dupe-${tag}@users-test.test`])
+        .count<{ count: string }[]>('* as count'),
+    ).toEqual([{ count: '1' }]);
   });
 });
 
@@ -139,7 +158,10 @@ describe('updateUser', () => {
     const changed = await updateUser({ companyId: companyA, id: user.id, patch: { active: false } });
     expect(changed).toMatchObject({ active: false, sessionVersion: 2 });
     // Reactivating does not need to end sessions again.
-    expect(await updateUser({ companyId: companyA, id: user.id, patch: { active: true } })).toMatchObject({ active: true, sessionVersion: 2 });
+    expect(await updateUser({ companyId: companyA, id: user.id, patch: { active: true } })).toMatchObject({
+      active: true,
+      sessionVersion: 2,
+    });
   });
 
   it('bumps the session version on an explicit revoke, each time', async () => {

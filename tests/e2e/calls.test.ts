@@ -55,11 +55,17 @@ const foulingRod = (step: ApiStep) => {
   if (step.kind === 'measure') {
     const bands = step.bands!;
     if (step.id === 'flame-signal') return bands.findIndex((b) => b.label === 'Low flame signal');
-    return Math.max(0, bands.findIndex((b) => b.verdict === 'within'));
+    return Math.max(
+      0,
+      bands.findIndex((b) => b.verdict === 'within'),
+    );
   }
   if (step.kind === 'inspect') {
     if (step.id === 'rod-inspect') return step.choices!.findIndex((c) => c.value === 'dirty');
-    return Math.max(0, step.choices!.findIndex((c) => HEALTHY_CHOICES.includes(c.value)));
+    return Math.max(
+      0,
+      step.choices!.findIndex((c) => HEALTHY_CHOICES.includes(c.value)),
+    );
   }
   return 0;
 };
@@ -109,7 +115,14 @@ describe('calls list and new call', () => {
     expect(await form.submit.isDisabled()).toBe(true);
 
     await form.addSite({ name: siteName, address: '9 Quarry Lane, Fenwick', email: 'owner@harrowgate.example.test' });
-    await form.addUnit({ label: 'Utility-room furnace', ignition: 'DSI, single-rod', fuel: 'LP', supply: '24 V only', va: '40', year: '2018' });
+    await form.addUnit({
+      label: 'Utility-room furnace',
+      ignition: 'DSI, single-rod',
+      fuel: 'LP',
+      supply: '24 V only',
+      va: '40',
+      year: '2018',
+    });
     await form.complain('No heat this morning; the furnace clicks but never lights.');
     await form.submit.click();
     await page.waitForURL(/\/calls\/[0-9a-f-]{36}$/);
@@ -134,7 +147,10 @@ describe('calls list and new call', () => {
 
     await page.goto('/');
     await page.getByRole('heading', { name: /My open calls/ }).waitFor();
-    await page.getByRole('main').getByRole('link', { name: new RegExp(siteName) }).waitFor();
+    await page
+      .getByRole('main')
+      .getByRole('link', { name: new RegExp(siteName) })
+      .waitFor();
     if (SHOOT) await shootScreens(page, 'home-technician');
     await page.close();
   });
@@ -226,7 +242,9 @@ describe('call page, report and unit history', () => {
     const created = await tech.post('/api/calls', { unitId: basementId, complaint: unique('Control locks out after three tries') });
     expect(created.status).toBe(201);
     callId = created.json.id;
-    ({ finding: { title: findingTitle } } = await walkToFinding(tech, callId, foulingRod));
+    ({
+      finding: { title: findingTitle },
+    } = await walkToFinding(tech, callId, foulingRod));
     // The default tree isolates a fouled rod from a low flame signal and a dirty rod on inspection.
     expect(findingTitle).toBe('Dirty or oxidized flame rod');
   });
@@ -304,7 +322,11 @@ describe('call page, report and unit history', () => {
     const created = await appr.post('/api/calls', { unitId, complaint: unique('Apprentice call') });
     expect(created.status).toBe(201);
     await walkToFinding(appr, created.json.id);
-    const repaired = await tech.call('PUT', `/api/calls/${created.json.id}/repair`, { repairNotes: 'Replaced the part.', cycles: 3, checks: [] });
+    const repaired = await tech.call('PUT', `/api/calls/${created.json.id}/repair`, {
+      repairNotes: 'Replaced the part.',
+      cycles: 3,
+      checks: [],
+    });
     expect(repaired.status).toBe(200);
 
     const page = await signInAs(DEMO.technician);

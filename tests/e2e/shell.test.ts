@@ -173,7 +173,12 @@ describe('admin users page', () => {
     await expectVisible(users.row(DEMO.apprentice));
     await expectVisible(users.row(DEMO.admin));
     // The admin's own row offers no way to lock themselves out.
-    expect(await users.row(DEMO.admin).getByRole('button', { name: /^Deactivate/ }).count()).toBe(0);
+    expect(
+      await users
+        .row(DEMO.admin)
+        .getByRole('button', { name: /^Deactivate/ })
+        .count(),
+    ).toBe(0);
     expect(await users.row(DEMO.admin).getByRole('combobox').isDisabled()).toBe(true);
     await screenshotAll(page, 'users');
 
@@ -196,7 +201,10 @@ describe('admin users page', () => {
 
     await users.changeRole(name, email, 'technician');
     await expectText(users.status, `${name} is now technician.`);
-    await waitFor(async () => (await row.getByLabel(`Role of ${name}`).inputValue()) === 'technician', 'the role select to show technician');
+    await waitFor(
+      async () => (await row.getByLabel(`Role of ${name}`).inputValue()) === 'technician',
+      'the role select to show technician',
+    );
     // A role change ends the person's sessions.
     expect((await person.get('/api/me')).status).toBe(401);
     expect((await person.signIn(email, password)).status).toBe(200);

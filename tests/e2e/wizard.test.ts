@@ -217,56 +217,68 @@ describe('the wizard', () => {
     expect((await serverView(diagnosisId)).path).toHaveLength(1);
   });
 
-  it.runIf(Boolean(SHOTS))('takes screenshots of the wizard screens', async () => {
-    mkdirSync(SHOTS!, { recursive: true });
-    const answer = async (diagnosisId: string, stepId: string, body: Record<string, unknown>) => {
-      const res = await tech.post(`/api/diagnoses/${diagnosisId}/answers`, { clientId: crypto.randomUUID(), stepId, ...body });
-      expect(res.status, `${stepId}: ${res.text}`).toBe(200);
-    };
-    const walk = async (diagnosisId: string, moves: Move[]) => {
-      for (const m of moves) {
-        const step = getStep(tree, m.step)!;
-        await answer(diagnosisId, m.step, step.kind === 'measure' ? { text: m.text, unit: m.unit } : step.kind === 'inspect' ? { choice: m.choice } : { confirmed: true });
-      }
-    };
-    const toFlameSignal: Move[] = [
-      ...HEALTHY_TO_CONTROL,
-      ...CONTROL_TO_FLAME_SIGNAL,
-    ];
-    const callId = await newCall();
-    // First diagnosis: a weak signal and an open ground path; the second reads a good signal, so
-    // its finding "control not sensing" is contradicted by the open ground path of the first.
-    const first = (await tech.post(`/api/calls/${callId}/diagnoses`, { treeVersionId })).json.id as string;
-    await walk(first, [...toFlameSignal, { step: 'flame-signal', text: '0.5' }, { step: 'lock-out--rod-inspect' }, { step: 'rod-inspect', choice: 'good' }, { step: 'burner-surface', choice: 'clean' }, { step: 'ground-path', text: '50' }]);
-    const second = (await tech.post(`/api/calls/${callId}/diagnoses`, { treeVersionId })).json.id as string;
-    await walk(second, [...toFlameSignal, { step: 'flame-signal', text: '4' }]);
-    const inspect = (await tech.post(`/api/calls/${callId}/diagnoses`, { treeVersionId })).json.id as string;
-    await walk(inspect, HEALTHY_TO_CONTROL.slice(0, 4));
-    const lockout = (await tech.post(`/api/calls/${callId}/diagnoses`, { treeVersionId })).json.id as string;
-    await walk(lockout, [...HEALTHY_TO_CONTROL, { step: 'control-th-input', text: '24' }, { step: 'spark-observe', choice: 'at-gap' }]);
-    const measure = (await tech.post(`/api/calls/${callId}/diagnoses`, { treeVersionId })).json.id as string;
-    await walk(measure, HEALTHY_TO_CONTROL.slice(0, 2));
+  it.runIf(Boolean(SHOTS))(
+    'takes screenshots of the wizard screens',
+    async () => {
+      mkdirSync(SHOTS!, { recursive: true });
+      const answer = async (diagnosisId: string, stepId: string, body: Record<string, unknown>) => {
+        const res = await tech.post(`/api/diagnoses/${diagnosisId}/answers`, { clientId: crypto.randomUUID(), stepId, ...body });
+        expect(res.status, `${stepId}: ${res.text}`).toBe(200);
+      };
+      const walk = async (diagnosisId: string, moves: Move[]) => {
+        for (const m of moves) {
+          const step = getStep(tree, m.step)!;
+          await answer(
+            diagnosisId,
+            m.step,
+            step.kind === 'measure' ? { text: m.text, unit: m.unit } : step.kind === 'inspect' ? { choice: m.choice } : { confirmed: true },
+          );
+        }
+      };
+      const toFlameSignal: Move[] = [...HEALTHY_TO_CONTROL, ...CONTROL_TO_FLAME_SIGNAL];
+      const callId = await newCall();
+      // First diagnosis: a weak signal and an open ground path; the second reads a good signal, so
+      // its finding "control not sensing" is contradicted by the open ground path of the first.
+      const first = (await tech.post(`/api/calls/${callId}/diagnoses`, { treeVersionId })).json.id as string;
+      await walk(first, [
+        ...toFlameSignal,
+        { step: 'flame-signal', text: '0.5' },
+        { step: 'lock-out--rod-inspect' },
+        { step: 'rod-inspect', choice: 'good' },
+        { step: 'burner-surface', choice: 'clean' },
+        { step: 'ground-path', text: '50' },
+      ]);
+      const second = (await tech.post(`/api/calls/${callId}/diagnoses`, { treeVersionId })).json.id as string;
+      await walk(second, [...toFlameSignal, { step: 'flame-signal', text: '4' }]);
+      const inspect = (await tech.post(`/api/calls/${callId}/diagnoses`, { treeVersionId })).json.id as string;
+      await walk(inspect, HEALTHY_TO_CONTROL.slice(0, 4));
+      const lockout = (await tech.post(`/api/calls/${callId}/diagnoses`, { treeVersionId })).json.id as string;
+      await walk(lockout, [...HEALTHY_TO_CONTROL, { step: 'control-th-input', text: '24' }, { step: 'spark-observe', choice: 'at-gap' }]);
+      const measure = (await tech.post(`/api/calls/${callId}/diagnoses`, { treeVersionId })).json.id as string;
+      await walk(measure, HEALTHY_TO_CONTROL.slice(0, 2));
 
-    const wizard = new WizardPage(page);
-    const shots: [string, string, (() => Promise<void>)?][] = [
-      ['measure', measure, async () => void (await wizard.enterReading('26.4'))],
-      ['inspect', inspect],
-      ['lockout', lockout, async () => void (await page.getByRole('checkbox').first().check())],
-      ['finding-contradiction', second],
-    ];
-    for (const [name, id, prepare] of shots) {
-      for (const theme of ['light', 'dark'] as const) {
-        await setTheme(page, theme);
-        for (const vp of ['tablet-landscape', 'tablet-portrait', 'phone'] as const) {
-          await page.setViewportSize(VIEWPORTS[vp]);
-          await wizard.open(callId, id);
-          if (name === 'finding-contradiction') await page.getByTestId('contradictions').waitFor();
-          if (prepare) await prepare();
-          await page.screenshot({ path: path.join(SHOTS!, `${name}-${vp}-${theme}.png`), fullPage: true });
+      const wizard = new WizardPage(page);
+      const shots: [string, string, (() => Promise<void>)?][] = [
+        ['measure', measure, async () => void (await wizard.enterReading('26.4'))],
+        ['inspect', inspect],
+        ['lockout', lockout, async () => void (await page.getByRole('checkbox').first().check())],
+        ['finding-contradiction', second],
+      ];
+      for (const [name, id, prepare] of shots) {
+        for (const theme of ['light', 'dark'] as const) {
+          await setTheme(page, theme);
+          for (const vp of ['tablet-landscape', 'tablet-portrait', 'phone'] as const) {
+            await page.setViewportSize(VIEWPORTS[vp]);
+            await wizard.open(callId, id);
+            if (name === 'finding-contradiction') await page.getByTestId('contradictions').waitFor();
+            if (prepare) await prepare();
+            await page.screenshot({ path: path.join(SHOTS!, `${name}-${vp}-${theme}.png`), fullPage: true });
+          }
         }
       }
-    }
-    await setTheme(page, 'light');
-    await page.setViewportSize(VIEWPORTS['tablet-landscape']);
-  }, 300_000);
+      await setTheme(page, 'light');
+      await page.setViewportSize(VIEWPORTS['tablet-landscape']);
+    },
+    300_000,
+  );
 });

@@ -136,6 +136,8 @@ describe('checkBandCoverage', () => {
   });
 
   it('reports an open end in the middle as an overlap', () => {
-    expect(checkBandCoverage([b(undefined, undefined), b(1, undefined)])).toContainEqual(expect.stringMatching(/open above, so it overlaps/));
+    expect(checkBandCoverage([b(undefined, undefined), b(1, undefined)])).toContainEqual(
+      expect.stringMatching(/open above, so it overlaps/),
+    );
   });
 });

@@ -39,7 +39,12 @@ describe('checkConsistency with the default tree', () => {
     // The 4.5 µA reading was taken last, even though it comes first in the list.
     expect(checkConsistency(dirtyRod, readings)).toMatchObject([{ value: 4.5, takenAt: '2025-01-10T10:05:00Z' }]);
     // Without times, the later one in the list wins.
-    expect(checkConsistency(dirtyRod, [{ stepId: 'flame-signal', value: 4.5 }, { stepId: 'flame-signal', value: 0.8 }])).toEqual([]);
+    expect(
+      checkConsistency(dirtyRod, [
+        { stepId: 'flame-signal', value: 4.5 },
+        { stepId: 'flame-signal', value: 0.8 },
+      ]),
+    ).toEqual([]);
   });
 
   it('checks every expectation of a finding', () => {

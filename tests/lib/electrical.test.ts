@@ -1,12 +1,5 @@
 import { all, create } from 'mathjs';
-import {
-  awgDiameterInches,
-  copperResistanceOhmsPerKft,
-  parseAwg,
-  transformerLoad,
-  voltageAtLoad,
-  voltageDrop,
-} from '@/lib/electrical';
+import { awgDiameterInches, copperResistanceOhmsPerKft, parseAwg, transformerLoad, voltageAtLoad, voltageDrop } from '@/lib/electrical';
 
 const math = create(all);
 
@@ -157,9 +150,7 @@ describe('voltageDrop and voltageAtLoad', () => {
 
   it('refuses a source of no volts, and a drop larger than the source', () => {
     expect(() => voltageAtLoad({ sourceVolts: 0, awg: 18, oneWayLengthFt: 60, currentA: 0.5 })).toThrow(/Source voltage/);
-    expect(() => voltageAtLoad({ sourceVolts: 24, awg: 30, oneWayLengthFt: 5000, currentA: 2 })).toThrow(
-      /cannot draw/,
-    );
+    expect(() => voltageAtLoad({ sourceVolts: 24, awg: 30, oneWayLengthFt: 5000, currentA: 2 })).toThrow(/cannot draw/);
   });
 });
 
@@ -189,7 +180,14 @@ describe('transformerLoad', () => {
 
   it('flags an overload and a fuse too small for the load', () => {
     // Ohm's law, VA = V × A: 48 VA at 24 V is 2 A
-    const r = transformerLoad({ ratingVa: 40, loadsVa: [{ name: 'valve', va: 30 }, { name: 'zone', va: 18 }], fuseAmps: 1.5 });
+    const r = transformerLoad({
+      ratingVa: 40,
+      loadsVa: [
+        { name: 'valve', va: 30 },
+        { name: 'zone', va: 18 },
+      ],
+      fuseAmps: 1.5,
+    });
     expect(r.totalVa).toBe(48);
     expect(r.currentA).toBeCloseTo(2, 12);
     expect(r.percentOfRating).toBeCloseTo(120, 9);

@@ -155,7 +155,13 @@ describe('diagnosis machine on the default tree', () => {
       'lock-out--spark-lead-inspect',
       'spark-lead-inspect',
     ]);
-    expect(snap.context.path[0]).toMatchObject({ kind: 'measure', value: 121, bandIndex: 1, outcome: 'control-supply', energyBefore: 'energized' });
+    expect(snap.context.path[0]).toMatchObject({
+      kind: 'measure',
+      value: 121,
+      bandIndex: 1,
+      outcome: 'control-supply',
+      energyBefore: 'energized',
+    });
     expect(snap.context.path[8]).toMatchObject({ kind: 'action', confirmed: true, energyBefore: 'energized' });
     expect(snap.context.path[9]).toMatchObject({ kind: 'inspect', choice: 'lead-broken', energyBefore: 'locked-out' });
   });

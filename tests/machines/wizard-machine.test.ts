@@ -220,7 +220,12 @@ describe('wizard machine', () => {
     await flush();
     expect(w.ctx().stepId).toBe('line-voltage');
     expect(w.ctx().pending).toHaveLength(0);
-    expect(w.ctx().refusal).toEqual({ stepId: 'line-voltage', message: '120 VAC is outside the plausible range', text: '120', unit: undefined });
+    expect(w.ctx().refusal).toEqual({
+      stepId: 'line-voltage',
+      message: '120 VAC is outside the plausible range',
+      text: '120',
+      unit: undefined,
+    });
     expect(w.sent).toHaveLength(1);
 
     w.actor.send({ type: 'answer.submit', answer: { stepId: 'line-voltage', text: '119', value: 119 } });
@@ -258,7 +263,10 @@ describe('wizard machine', () => {
 
     const first = w.ctx().saved[0];
     const server: WizardView = { id: DIAGNOSIS, path: [echo({ ...first, attempts: 0 })] };
-    const undone = start({ view: { id: DIAGNOSIS, path: w.ctx().saved.map((a) => echo({ ...a, attempts: 0 })) }, undo: async () => server });
+    const undone = start({
+      view: { id: DIAGNOSIS, path: w.ctx().saved.map((a) => echo({ ...a, attempts: 0 })) },
+      undo: async () => server,
+    });
     expect(undone.ctx().stepId).toBe('transformer-secondary');
     undone.actor.send({ type: 'answer.undo' });
     expect(undone.actor.getSnapshot().value).toBe('undoing');
@@ -328,7 +336,11 @@ describe('wizard machine', () => {
     await flush();
     await flush();
     expect(w.ctx().pending).toHaveLength(0);
-    expect(pathItems(w.ctx()).map((p) => p.stepId).at(-1)).toBe('lock-out--spark-gap');
+    expect(
+      pathItems(w.ctx())
+        .map((p) => p.stepId)
+        .at(-1),
+    ).toBe('lock-out--spark-gap');
   });
 
   it('describes readings in the path with their band, saved or not', () => {

@@ -43,10 +43,7 @@ export default async function CallsPage() {
                 : 'The calls assigned to you.'}
           </p>
         </div>
-        <Link
-          href="/calls/new"
-          className="btn-primary fixed inset-x-4 bottom-4 z-10 shadow-lg sm:static sm:inset-auto sm:shadow-none"
-        >
+        <Link href="/calls/new" className="btn-primary fixed inset-x-4 bottom-4 z-10 shadow-lg sm:static sm:inset-auto sm:shadow-none">
           New call
         </Link>
       </div>

@@ -8,8 +8,8 @@ export default async function TreesPage() {
   await requirePageUser({ roles: ['lead', 'admin'] });
   return (
     <ComingLater title="Fault trees">
-      Leads will edit steps and outcomes here, send drafts to another lead for review, run the isolation check on the bench and
-      publish new versions. Until then every diagnosis runs the published default tree, “No heat — direct spark ignition”.
+      Leads will edit steps and outcomes here, send drafts to another lead for review, run the isolation check on the bench and publish new
+      versions. Until then every diagnosis runs the published default tree, “No heat — direct spark ignition”.
     </ComingLater>
   );
 }

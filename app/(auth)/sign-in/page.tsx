@@ -15,13 +15,15 @@ export default function SignInPage() {
       <div className="flex flex-1 items-center justify-center px-4 pb-16">
         <div className="w-full max-w-md">
           <h1 className="page-title mb-2">Sign in</h1>
-          <p className="mb-6 text-muted">Guided fault isolation for direct spark ignition furnaces, for your company&apos;s technicians, apprentices, leads and trainers.</p>
+          <p className="mb-6 text-muted">
+            Guided fault isolation for direct spark ignition furnaces, for your company&apos;s technicians, apprentices, leads and trainers.
+          </p>
           <div className="card">
             <SignInForm />
           </div>
           <p className="mt-6 text-sm text-muted">
-            Gas, line voltage and a high-voltage spark can injure or kill. This app guides; it does not replace local codes, the
-            equipment manufacturer&apos;s instructions or licensed practice.
+            Gas, line voltage and a high-voltage spark can injure or kill. This app guides; it does not replace local codes, the equipment
+            manufacturer&apos;s instructions or licensed practice.
           </p>
         </div>
       </div>

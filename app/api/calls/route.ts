@@ -9,10 +9,14 @@ export const dynamic = 'force-dynamic';
 
 export const GET = route({ roles: 'any' }, async ({ user, request }) => {
   const search = Object.fromEntries(new URL(request.url).searchParams);
-  const filter = parseOrThrow(callFilterSchema, {
-    status: search.status || undefined,
-    technician: search.technician || undefined,
-  }, 'The filter');
+  const filter = parseOrThrow(
+    callFilterSchema,
+    {
+      status: search.status || undefined,
+      technician: search.technician || undefined,
+    },
+    'The filter',
+  );
   return findCalls({ viewer: viewerOf(user), ...filter });
 });
 

@@ -24,9 +24,30 @@ const row = (over: Partial<CallRow>): CallRow => ({
 });
 
 const CALLS: CallRow[] = [
-  row({ siteName: 'Oduya residence', unitLabel: 'Basement furnace', complaint: 'Control locks out after three tries', status: 'open', openedAt: '2026-11-30T10:00:00.000Z', technicianName: 'Dale Ferris' }),
-  row({ siteName: 'Copperfield Bakery', unitLabel: 'Back-room furnace', complaint: 'Tries to light, then shuts off', status: 'diagnosing', openedAt: '2026-11-29T10:00:00.000Z', technicianName: 'Noor Haddad' }),
-  row({ siteName: 'St. Aldric Parish Hall', unitLabel: 'Hall furnace 2', complaint: 'Hall is cold', status: 'closed', openedAt: '2026-12-01T08:00:00.000Z', technicianName: 'Ada Brook' }),
+  row({
+    siteName: 'Oduya residence',
+    unitLabel: 'Basement furnace',
+    complaint: 'Control locks out after three tries',
+    status: 'open',
+    openedAt: '2026-11-30T10:00:00.000Z',
+    technicianName: 'Dale Ferris',
+  }),
+  row({
+    siteName: 'Copperfield Bakery',
+    unitLabel: 'Back-room furnace',
+    complaint: 'Tries to light, then shuts off',
+    status: 'diagnosing',
+    openedAt: '2026-11-29T10:00:00.000Z',
+    technicianName: 'Noor Haddad',
+  }),
+  row({
+    siteName: 'St. Aldric Parish Hall',
+    unitLabel: 'Hall furnace 2',
+    complaint: 'Hall is cold',
+    status: 'closed',
+    openedAt: '2026-12-01T08:00:00.000Z',
+    technicianName: 'Ada Brook',
+  }),
 ];
 
 /** The server filters by status: the mock does the same with the query SWR sends. */
@@ -42,7 +63,12 @@ function serve() {
 function renderTable(props: Partial<React.ComponentProps<typeof CallsTable>> = {}) {
   return render(
     <SWRConfig value={{ provider: () => new Map(), dedupingInterval: 0 }}>
-      <CallsTable initialCalls={CALLS} technicianChoice="everyone" assignees={[{ id: crypto.randomUUID(), name: 'Dale Ferris' }]} {...props} />
+      <CallsTable
+        initialCalls={CALLS}
+        technicianChoice="everyone"
+        assignees={[{ id: crypto.randomUUID(), name: 'Dale Ferris' }]}
+        {...props}
+      />
     </SWRConfig>,
   );
 }
@@ -136,7 +162,8 @@ describe('CallsTable', () => {
   it('shows the server’s error with a retry that fetches again', async () => {
     const user = userEvent.setup();
     fetchMock.mockImplementation(
-      async () => new Response(JSON.stringify({ error: { code: 'unavailable', message: 'The database is not reachable.' } }), { status: 503 }),
+      async () =>
+        new Response(JSON.stringify({ error: { code: 'unavailable', message: 'The database is not reachable.' } }), { status: 503 }),
     );
     renderTable({ initialCalls: undefined });
     const alert = await screen.findByRole('alert');

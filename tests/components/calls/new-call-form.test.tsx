@@ -15,7 +15,18 @@ const SITES: PickerSite[] = [
     name: 'Oduya residence',
     address: '41 Larchmont Rise, Fenwick',
     contactEmail: null,
-    units: [{ id: UNIT_ID, siteId: SITE_ID, label: 'Basement furnace', ignition: 'two-rod', fuel: 'natural-gas', controlSupply: '24v', transformerVa: 40, installYear: 2011 }],
+    units: [
+      {
+        id: UNIT_ID,
+        siteId: SITE_ID,
+        label: 'Basement furnace',
+        ignition: 'two-rod',
+        fuel: 'natural-gas',
+        controlSupply: '24v',
+        transformerVa: 40,
+        installYear: 2011,
+      },
+    ],
   },
 ];
 
@@ -102,8 +113,22 @@ describe('NewCallForm', () => {
 
   it('adds a site and a unit inline, opens the call for yourself and goes to it', async () => {
     const user = userEvent.setup();
-    const newSite = { id: '3f1c0a52-5d0e-4c43-9a43-0f3b6f0d1a10', name: 'Harrowgate cottage', address: '9 Quarry Lane', contactEmail: 'owner@harrowgate.example.test' };
-    const newUnit = { id: '3f1c0a52-5d0e-4c43-9a43-0f3b6f0d1a11', siteId: newSite.id, label: 'Utility-room furnace', ignition: 'single-rod', fuel: 'lp', controlSupply: 'line', transformerVa: 75, installYear: 2018 };
+    const newSite = {
+      id: '3f1c0a52-5d0e-4c43-9a43-0f3b6f0d1a10',
+      name: 'Harrowgate cottage',
+      address: '9 Quarry Lane',
+      contactEmail: 'owner@harrowgate.example.test',
+    };
+    const newUnit = {
+      id: '3f1c0a52-5d0e-4c43-9a43-0f3b6f0d1a11',
+      siteId: newSite.id,
+      label: 'Utility-room furnace',
+      ignition: 'single-rod',
+      fuel: 'lp',
+      controlSupply: 'line',
+      transformerVa: 75,
+      installYear: 2018,
+    };
     const createSite = vi.fn().mockResolvedValue({ ok: true, data: newSite });
     const createUnit = vi.fn().mockResolvedValue({ ok: true, data: newUnit });
     const createCall = vi.fn().mockResolvedValue({ ok: true, data: { id: 'call-1' } });
@@ -116,7 +141,11 @@ describe('NewCallForm', () => {
     await user.type(siteGroup.getByLabelText('Customer e-mail'), 'Owner@Harrowgate.example.test');
     await user.click(siteGroup.getByRole('button', { name: 'Add site' }));
     await waitFor(() => expect(screen.getByRole('radio', { name: /Harrowgate cottage/ })).toBeChecked());
-    expect(createSite).toHaveBeenCalledWith({ name: newSite.name, address: newSite.address, contactEmail: 'owner@harrowgate.example.test' });
+    expect(createSite).toHaveBeenCalledWith({
+      name: newSite.name,
+      address: newSite.address,
+      contactEmail: 'owner@harrowgate.example.test',
+    });
 
     await user.click(screen.getByRole('button', { name: 'Add a unit at this site' }));
     const unitGroup = within(screen.getByRole('group', { name: 'New unit' }));

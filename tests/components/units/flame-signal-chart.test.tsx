@@ -62,7 +62,13 @@ describe('FlameSignalChart', () => {
     const table = screen.getByRole('table', { name: 'Flame signal readings' });
     const rows = within(table).getAllByRole('row').slice(1);
     expect(rows).toHaveLength(5);
-    expect(rows.map((r) => within(r).getAllByRole('cell')[2].textContent)).toEqual(['4.8 µA', '1.7 µA ▼ low', '3.6 µA', '1.2 µA ▼ low', '4.9 µA']);
+    expect(rows.map((r) => within(r).getAllByRole('cell')[2].textContent)).toEqual([
+      '4.8 µA',
+      '1.7 µA ▼ low',
+      '3.6 µA',
+      '1.2 µA ▼ low',
+      '4.9 µA',
+    ]);
     expect(rows.map((r) => within(r).getAllByRole('cell')[1].textContent)).toEqual([
       'During diagnosis',
       'During diagnosis',

@@ -164,7 +164,10 @@ describe('GET /api/me', () => {
     const forged = await new ApiClient().call('GET', '/api/me', undefined, { headers: { cookie: 'pg_session=not-a-sealed-session' } });
     expect(forged.status).toBe(401);
     const client = await signedIn(DEMO.lead);
-    const damaged = client.cookieHeader.replace(/pg_session=([^;]{10})/, (_m, head: string) => `pg_session=${[...head].reverse().join('')}`);
+    const damaged = client.cookieHeader.replace(
+      /pg_session=([^;]{10})/,
+      (_m, head: string) => `pg_session=${[...head].reverse().join('')}`,
+    );
     expect(damaged).not.toBe(client.cookieHeader);
     expect((await new ApiClient().call('GET', '/api/me', undefined, { headers: { cookie: damaged } })).status).toBe(401);
   });
@@ -172,7 +175,12 @@ describe('GET /api/me', () => {
 
 describe('a cookie that is not a session of ours', () => {
   it('does not stop a sign-in, which replaces it', async () => {
-    const res = await new ApiClient().call('POST', SIGN_IN, { email: DEMO.lead, password: DEMO_PASSWORD }, { headers: { cookie: 'pg_session=left-over-junk' } });
+    const res = await new ApiClient().call(
+      'POST',
+      SIGN_IN,
+      { email: DEMO.lead, password: DEMO_PASSWORD },
+      { headers: { cookie: 'pg_session=left-over-junk' } },
+    );
     expect(res.status).toBe(200);
     const cookie = res.setCookies.find((c) => c.startsWith('pg_session='));
     expect(cookie).toMatch(/^pg_session=Fe26\.2\*/);

@@ -33,8 +33,14 @@ async function walk(client: ApiClient, diagnosisId: string, first: any, script: 
   const seen: string[] = [];
   for (let i = 0; i < 80 && step; i++) {
     seen.push(step.id);
-    const body = step.kind === 'measure' ? { stepId: step.id, text: script[step.id] } : step.kind === 'inspect' ? { stepId: step.id, choice: script[step.id] } : { stepId: step.id, confirmed: true };
-    if ((step.kind === 'measure' || step.kind === 'inspect') && script[step.id] === undefined) throw new Error(`no scripted answer for ${step.id}`);
+    const body =
+      step.kind === 'measure'
+        ? { stepId: step.id, text: script[step.id] }
+        : step.kind === 'inspect'
+          ? { stepId: step.id, choice: script[step.id] }
+          : { stepId: step.id, confirmed: true };
+    if ((step.kind === 'measure' || step.kind === 'inspect') && script[step.id] === undefined)
+      throw new Error(`no scripted answer for ${step.id}`);
     const res = await answer(client, diagnosisId, body);
     expect(res.status, `${step.id}: ${res.text}`).toBe(200);
     if (res.json.finding) return { finding: res.json.finding, seen, last: res.json };
@@ -81,7 +87,15 @@ beforeAll(async () => {
   versionId = tree.published.id;
   const site = await tech.post('/api/sites', { name: 'API test site', address: '9 Probe Lane' });
   expect(site.status, site.text).toBe(201);
-  const unit = await tech.post('/api/units', { siteId: site.json.id, label: 'API test furnace', ignition: 'two-rod', fuel: 'natural-gas', controlSupply: '24v', transformerVa: 40, installYear: 2015 });
+  const unit = await tech.post('/api/units', {
+    siteId: site.json.id,
+    label: 'API test furnace',
+    ignition: 'two-rod',
+    fuel: 'natural-gas',
+    controlSupply: '24v',
+    transformerVa: 40,
+    installYear: 2015,
+  });
   expect(unit.status, unit.text).toBe(201);
   unitId = unit.json.id;
 });
@@ -100,7 +114,7 @@ describe('trees', () => {
     for (const s of steps) for (const c of s.cautions) expect(['DANGER', 'WARNING', 'CAUTION', 'NOTICE']).toContain(c.signal);
   });
 
-  it("is invisible to another company (404) and anonymous users (401)", async () => {
+  it('is invisible to another company (404) and anonymous users (401)', async () => {
     expect((await other.get(`/api/tree-versions/${versionId}`)).status).toBe(404);
     expect((await other.get('/api/tree-versions/not-a-uuid')).status).toBe(404);
     const theirs = await other.get('/api/trees');
@@ -111,10 +125,24 @@ describe('trees', () => {
 describe('sites, units and calls', () => {
   it('refuses bad units with field errors and stores nothing', async () => {
     const before = (await tech.get('/api/units')).json.length;
-    const bad = await tech.post('/api/units', { siteId: randomUUID(), label: '', ignition: 'hot-surface', fuel: 'natural-gas', controlSupply: '24v', transformerVa: -5 });
+    const bad = await tech.post('/api/units', {
+      siteId: randomUUID(),
+      label: '',
+      ignition: 'hot-surface',
+      fuel: 'natural-gas',
+      controlSupply: '24v',
+      transformerVa: -5,
+    });
     expect(bad.status).toBe(400);
     expect(Object.keys(bad.json.error.fieldErrors)).toEqual(expect.arrayContaining(['label', 'ignition', 'transformerVa']));
-    const missingSite = await tech.post('/api/units', { siteId: randomUUID(), label: 'Ghost', ignition: 'two-rod', fuel: 'lp', controlSupply: 'line', transformerVa: 40 });
+    const missingSite = await tech.post('/api/units', {
+      siteId: randomUUID(),
+      label: 'Ghost',
+      ignition: 'two-rod',
+      fuel: 'lp',
+      controlSupply: 'line',
+      transformerVa: 40,
+    });
     expect(missingSite.status).toBe(404);
     expect((await tech.get('/api/units')).json.length).toBe(before);
   });
@@ -241,14 +269,17 @@ describe('diagnoses', () => {
     expect((await tech.get(`/api/diagnoses/${d.id}`)).json.path).toHaveLength(0);
   });
 
-  it("keeps others out: apprentice, trainer and the other company get 404; anonymous 401", async () => {
+  it('keeps others out: apprentice, trainer and the other company get 404; anonymous 401', async () => {
     const d = await newDiagnosis(tech, await newCall(tech));
     for (const client of [appr, trainer, other]) {
       expect((await client.get(`/api/diagnoses/${d.id}`)).status).toBe(404);
       expect((await answer(client, d.id, { stepId: 'line-voltage', text: '120' })).status).toBe(404);
       expect((await client.call('DELETE', `/api/diagnoses/${d.id}/answers/last`)).status).toBe(404);
     }
-    expect((await other.post(`/api/calls/${(await tech.get(`/api/diagnoses/${d.id}`)).json.callId}/diagnoses`, { treeVersionId: versionId })).status).toBe(404);
+    expect(
+      (await other.post(`/api/calls/${(await tech.get(`/api/diagnoses/${d.id}`)).json.callId}/diagnoses`, { treeVersionId: versionId }))
+        .status,
+    ).toBe(404);
     const { ApiClient } = await import('../support/http');
     const anon = new ApiClient();
     expect((await anon.get(`/api/diagnoses/${d.id}`)).status).toBe(401);
@@ -260,7 +291,12 @@ describe('diagnoses', () => {
     const call = await lead.post('/api/calls', { unitId, complaint: 'Apprentice call', technicianId: me.id });
     const d = await newDiagnosis(appr, call.json.id);
     await walk(appr, d.id, d.step, { ...HEALTHY, 'control-th-input': '0.3', 'high-limit-across': '25.4' });
-    const repair = await tech.call('PUT', `/api/calls/${call.json.id}/repair`, { repairNotes: 'Replaced the clogged filter', cycles: 3, flameSignal: '4.4 µA', checks: [] });
+    const repair = await tech.call('PUT', `/api/calls/${call.json.id}/repair`, {
+      repairNotes: 'Replaced the clogged filter',
+      cycles: 3,
+      flameSignal: '4.4 µA',
+      checks: [],
+    });
     expect(repair.status, repair.text).toBe(200);
     expect(repair.json.verification.flameSignal.value).toBeCloseTo(4.4, 10);
     const refused = await tech.post(`/api/calls/${call.json.id}/close`, { outcome: 'closed' });

@@ -74,7 +74,8 @@ describe('who may use /api/users', () => {
     expect(res.status).toBe(200);
     const users = res.json as AdminUser[];
     const emails = users.map((u) => u.email);
-    for (const email of [DEMO.apprentice, DEMO.technician, DEMO.lead, DEMO.lead2, DEMO.trainer, DEMO.admin]) expect(emails).toContain(email);
+    for (const email of [DEMO.apprentice, DEMO.technician, DEMO.lead, DEMO.lead2, DEMO.trainer, DEMO.admin])
+      expect(emails).toContain(email);
     expect(emails).not.toContain(DEMO.otherAdmin);
     expect(emails).not.toContain(DEMO.otherTechnician);
     for (const user of users) {
@@ -102,7 +103,13 @@ describe('POST /api/users', () => {
   it('puts the user in the admin’s own company whatever the body says', async () => {
     const otherCompany = (await otherAdmin.get('/api/me')).json.company.id as string;
     const email = `${unique('smuggled')}@api-test.test`;
-    const res = await admin.post('/api/users', { email, name: 'Smuggled', role: 'technician', password: PASSWORD, companyId: otherCompany });
+    const res = await admin.post('/api/users', {
+      email,
+      name: 'Smuggled',
+      role: 'technician',
+      password: PASSWORD,
+      companyId: otherCompany,
+    });
     expect(res.status).toBe(201);
     expect((await otherAdmin.get('/api/users')).json.map((u: AdminUser) => u.email)).not.toContain(email);
     expect((await reread(res.json.id))?.email).toBe(email);
@@ -113,7 +120,10 @@ describe('POST /api/users', () => {
     for (const email of [existing.email, existing.email.toUpperCase(), DEMO.otherTechnician]) {
       const res = await admin.post('/api/users', { email, name: 'Twin', role: 'technician', password: PASSWORD });
       expect(res.status, email).toBe(409);
-      expect(res.json.error).toMatchObject({ code: 'conflict', fieldErrors: { email: ['A user with that e-mail address already exists.'] } });
+      expect(res.json.error).toMatchObject({
+        code: 'conflict',
+        fieldErrors: { email: ['A user with that e-mail address already exists.'] },
+      });
     }
     const twins = ((await admin.get('/api/users')).json as AdminUser[]).filter((u) => u.email === existing.email);
     expect(twins).toHaveLength(1);
@@ -308,13 +318,21 @@ describe('/api/company', () => {
     const before = (await admin.get('/api/company')).json;
     const theirsBefore = (await otherAdmin.get('/api/company')).json;
     try {
-      const res = await admin.patch('/api/company', { name: 'Kestrel Valley Heating', officeEmail: 'Desk@Kestrel.TEST', displayUnits: 'metric' });
+      const res = await admin.patch('/api/company', {
+        name: 'Kestrel Valley Heating',
+        officeEmail: 'Desk@Kestrel.TEST',
+        displayUnits: 'metric',
+      });
       expect(res.status).toBe(200);
       expect(res.json).toEqual({ id: before.id, name: 'Kestrel Valley Heating', officeEmail: 'desk@kestrel.test', displayUnits: 'metric' });
       expect((await admin.get('/api/company')).json).toEqual(res.json);
       expect((await otherAdmin.get('/api/company')).json).toEqual(theirsBefore);
     } finally {
-      const restore = await admin.patch('/api/company', { name: before.name, officeEmail: before.officeEmail, displayUnits: before.displayUnits });
+      const restore = await admin.patch('/api/company', {
+        name: before.name,
+        officeEmail: before.officeEmail,
+        displayUnits: before.displayUnits,
+      });
       expect(restore.status).toBe(200);
     }
   });

@@ -115,7 +115,10 @@ export async function horizontalOverflow(page: Page): Promise<string | null> {
     const culprits = [...document.body.querySelectorAll('*')]
       .filter((el) => el.getBoundingClientRect().right > width + 1)
       .slice(-5)
-      .map((el) => `<${el.tagName.toLowerCase()} class="${el.getAttribute('class') ?? ''}"> right=${Math.round(el.getBoundingClientRect().right)}`);
+      .map(
+        (el) =>
+          `<${el.tagName.toLowerCase()} class="${el.getAttribute('class') ?? ''}"> right=${Math.round(el.getBoundingClientRect().right)}`,
+      );
     return `page is ${scrollWidth}px wide in a ${width}px viewport; ${culprits.join('; ')}`;
   });
 }

@@ -74,7 +74,10 @@ export class NewCallPage {
     await group.getByLabel('Address').fill(site.address);
     if (site.email) await group.getByLabel('Customer e-mail').fill(site.email);
     await group.getByRole('button', { name: 'Add site' }).click();
-    await this.page.getByRole('radio', { name: new RegExp(site.name) }).and(this.page.locator(':checked')).waitFor({ state: 'attached' });
+    await this.page
+      .getByRole('radio', { name: new RegExp(site.name) })
+      .and(this.page.locator(':checked'))
+      .waitFor({ state: 'attached' });
   }
 
   async pickSite(name: string): Promise<void> {
@@ -92,7 +95,10 @@ export class NewCallPage {
     await group.getByLabel('Transformer rating (VA)').fill(unit.va);
     if (unit.year) await group.getByLabel('Install year').fill(unit.year);
     await group.getByRole('button', { name: 'Add unit' }).click();
-    await this.page.getByRole('radio', { name: new RegExp(unit.label) }).and(this.page.locator(':checked')).waitFor({ state: 'attached' });
+    await this.page
+      .getByRole('radio', { name: new RegExp(unit.label) })
+      .and(this.page.locator(':checked'))
+      .waitFor({ state: 'attached' });
   }
 
   async complain(text: string): Promise<void> {

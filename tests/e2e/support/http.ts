@@ -56,7 +56,9 @@ export class ApiClient {
       const eq = pair.indexOf('=');
       const name = pair.slice(0, eq).trim();
       const value = pair.slice(eq + 1).trim();
-      const expired = attrs.some((a) => /^\s*max-age=0\s*$/i.test(a) || (/^\s*expires=/i.test(a) && Date.parse(a.split('=')[1]) < Date.now()));
+      const expired = attrs.some(
+        (a) => /^\s*max-age=0\s*$/i.test(a) || (/^\s*expires=/i.test(a) && Date.parse(a.split('=')[1]) < Date.now()),
+      );
       if (!value || expired) this.jar.delete(name);
       else this.jar.set(name, value);
     }

@@ -110,7 +110,9 @@ export class UsersAdminPage {
   }
 
   async toggleActive(name: string, email: string): Promise<void> {
-    await this.row(email).getByRole('button', { name: new RegExp(`^(Deactivate|Reactivate) ${name}$`) }).click();
+    await this.row(email)
+      .getByRole('button', { name: new RegExp(`^(Deactivate|Reactivate) ${name}$`) })
+      .click();
   }
 }
 

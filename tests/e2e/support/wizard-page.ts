@@ -42,7 +42,11 @@ export class WizardPage {
 
   /** Picks the unit, types with the on-screen keypad, and returns the gauge's verdict before saving. */
   async enterReading(text: string, unit?: string): Promise<{ verdict: string | null; line: string }> {
-    if (unit) await this.page.getByRole('radiogroup', { name: 'Unit' }).getByRole('radio', { name: new RegExp(`^${escape(unit)} `) }).click();
+    if (unit)
+      await this.page
+        .getByRole('radiogroup', { name: 'Unit' })
+        .getByRole('radio', { name: new RegExp(`^${escape(unit)} `) })
+        .click();
     for (const ch of text) {
       const name = ch === ' ' ? 'Space' : ch === '.' ? 'Decimal point' : ch === '/' ? 'Fraction slash' : ch === '-' ? 'Minus' : ch;
       await this.page.getByRole('group', { name: 'Keypad' }).getByRole('button', { name, exact: true }).click();

@@ -188,7 +188,11 @@ describe('DEFAULT_TREE', () => {
 
   it('puts real cautions on the dangerous steps', () => {
     const signals = (id: string) => steps.get(id)!.cautions.map((c) => c.signal);
-    const text = (id: string) => steps.get(id)!.cautions.map((c) => c.text).join(' ');
+    const text = (id: string) =>
+      steps
+        .get(id)!
+        .cautions.map((c) => c.text)
+        .join(' ');
     expect(text('line-voltage')).toMatch(/Line voltage/);
     expect(text('flame-signal')).toMatch(/line-powered control keeps it/);
     expect(text('spark-observe')).toMatch(/10 kV/);
@@ -213,7 +217,9 @@ describe('DEFAULT_TREE', () => {
     }
     const dirty = steps.get('f-dirty-flame-rod') as FindingStep;
     expect(dirty.expects).toContainEqual(expect.objectContaining({ step: 'flame-signal', to: 2 }));
-    expect((steps.get('f-no-line-power') as FindingStep).expects).toContainEqual(expect.objectContaining({ step: 'line-voltage', to: 108 }));
+    expect((steps.get('f-no-line-power') as FindingStep).expects).toContainEqual(
+      expect.objectContaining({ step: 'line-voltage', to: 108 }),
+    );
   });
 
   it('never contradicts itself: on every path, each band taken lies inside what the finding expects of that step', () => {
@@ -235,7 +241,8 @@ describe('DEFAULT_TREE', () => {
   });
 
   it('branches on the fuel so LP readings meet LP bands', () => {
-    const bandFor = (id: string, value: number) => (steps.get(id) as MeasureStep).bands.find((b) => (b.from ?? -Infinity) <= value && value < (b.to ?? Infinity))!;
+    const bandFor = (id: string, value: number) =>
+      (steps.get(id) as MeasureStep).bands.find((b) => (b.from ?? -Infinity) <= value && value < (b.to ?? Infinity))!;
     // Natural-gas manifold about 3.5 inWC, LP about 10–11 inWC: TRADE.md, common practice, no source.
     expect(bandFor('manifold-pressure', 3.5)).toMatchObject({ verdict: 'within', outcome: 'burners-light' });
     expect(bandFor('lp-manifold-pressure', 10.5)).toMatchObject({ verdict: 'within', outcome: 'burners-light' });

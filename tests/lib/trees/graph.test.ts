@@ -15,7 +15,16 @@ const finding = (id: string): Step => ({
   tags: [],
   expects: [],
 });
-const action = (id: string, outcome: string): Step => ({ id, kind: 'action', title: id, instruction: '', cautions: [], energy: 'any', checklist: [], outcome });
+const action = (id: string, outcome: string): Step => ({
+  id,
+  kind: 'action',
+  title: id,
+  instruction: '',
+  cautions: [],
+  energy: 'any',
+  checklist: [],
+  outcome,
+});
 const inspect = (id: string, ...outcomes: string[]): Step => ({
   id,
   kind: 'inspect',

@@ -149,7 +149,9 @@ describe('validateGraph', () => {
     const input = mutate((steps) => {
       (step(steps, 'volts').bands as { from?: number }[])[1].from = 10;
     });
-    expect(problemsOf(input)).toEqual([{ stepId: 'volts', message: expect.stringMatching(/^Bands of "volts": .*overlaps.* between 10 and 18/) }]);
+    expect(problemsOf(input)).toEqual([
+      { stepId: 'volts', message: expect.stringMatching(/^Bands of "volts": .*overlaps.* between 10 and 18/) },
+    ]);
   });
 
   it('rejects bands not open at the ends', () => {
@@ -170,11 +172,15 @@ describe('validateGraph', () => {
     const missing = mutate((steps) => {
       (step(steps, 'f-low').expects as { step: string }[])[0].step = 'ghost';
     });
-    expect(problemsOf(missing)).toEqual([{ stepId: 'f-low', message: 'Finding "f-low" expects a reading of "ghost", which does not exist' }]);
+    expect(problemsOf(missing)).toEqual([
+      { stepId: 'f-low', message: 'Finding "f-low" expects a reading of "ghost", which does not exist' },
+    ]);
     const notMeasure = mutate((steps) => {
       (step(steps, 'f-low').expects as { step: string }[])[0].step = 'look';
     });
-    expect(problemsOf(notMeasure)).toEqual([{ stepId: 'f-low', message: 'Finding "f-low" expects a reading of "look", which is not a measure step' }]);
+    expect(problemsOf(notMeasure)).toEqual([
+      { stepId: 'f-low', message: 'Finding "f-low" expects a reading of "look", which is not a measure step' },
+    ]);
   });
 
   it('rejects step ids reserved for the inserted procedures', () => {

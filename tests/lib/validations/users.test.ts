@@ -11,7 +11,12 @@ const good = { email: 'New.Person@Example.TEST', name: '  Ada Quist ', role: 'te
 
 describe('createUserSchema', () => {
   it('accepts a complete user, normalising e-mail and name', () => {
-    expect(createUserSchema.parse(good)).toEqual({ email: 'new.person@example.test', name: 'Ada Quist', role: 'technician', password: 'twelve-chars' });
+    expect(createUserSchema.parse(good)).toEqual({
+      email: 'new.person@example.test',
+      name: 'Ada Quist',
+      role: 'technician',
+      password: 'twelve-chars',
+    });
   });
 
   it('refuses an unknown role and names the allowed ones', () => {
@@ -57,7 +62,9 @@ describe('updateUserSchema', () => {
   });
 
   it('refuses a bad role, a non-boolean active and revokeSessions: false', () => {
-    expect(refusal(updateUserSchema, { role: 'boss' }).fieldErrors.role).toEqual(['Role must be one of: apprentice, technician, lead, trainer, admin.']);
+    expect(refusal(updateUserSchema, { role: 'boss' }).fieldErrors.role).toEqual([
+      'Role must be one of: apprentice, technician, lead, trainer, admin.',
+    ]);
     expect(refusal(updateUserSchema, { active: 'no' }).fieldErrors.active).toEqual(['active is true or false.']);
     expect(refusal(updateUserSchema, { revokeSessions: false }).fieldErrors.revokeSessions).toEqual(['revokeSessions can only be true.']);
   });

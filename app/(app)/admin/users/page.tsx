@@ -13,7 +13,9 @@ export default async function UsersPage() {
     <div className="space-y-6">
       <div>
         <h1 className="page-title">Users</h1>
-        <p className="text-muted">Everyone who signs in for {admin.companyName}: a role change or deactivation ends that person&apos;s sessions at once.</p>
+        <p className="text-muted">
+          Everyone who signs in for {admin.companyName}: a role change or deactivation ends that person&apos;s sessions at once.
+        </p>
       </div>
       <UsersAdmin
         users={users.map((u) => ({ ...u, createdAt: u.createdAt.toISOString() }))}

@@ -52,7 +52,8 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
             </h1>
             <p className="text-muted" suppressHydrationWarning>
               Opened {formatDateTime(call.openedAt)}
-              {call.closedAt && ` · ${call.status === 'referred' ? 'referred' : 'closed'} ${formatDateTime(call.closedAt)}${call.closedByName ? ` by ${call.closedByName}` : ''}`}
+              {call.closedAt &&
+                ` · ${call.status === 'referred' ? 'referred' : 'closed'} ${formatDateTime(call.closedAt)}${call.closedByName ? ` by ${call.closedByName}` : ''}`}
             </p>
           </div>
           <CallStatusBadge status={call.status} />
@@ -111,7 +112,11 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
                       Diagnosis {i + 1} · {d.treeTitle}, v{d.treeVersion}
                     </p>
                     <p className="text-lg font-bold">
-                      {d.finding ? d.finding.title : d.status === 'in_progress' ? `In progress, ${d.answers} ${d.answers === 1 ? 'answer' : 'answers'} so far` : 'Escalated'}
+                      {d.finding
+                        ? d.finding.title
+                        : d.status === 'in_progress'
+                          ? `In progress, ${d.answers} ${d.answers === 1 ? 'answer' : 'answers'} so far`
+                          : 'Escalated'}
                     </p>
                     <p className="text-sm" suppressHydrationWarning>
                       <span className="inline-flex items-center gap-1 font-semibold">
@@ -140,7 +145,10 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
                     )}
                   </div>
                   <div className="flex flex-wrap gap-2">
-                    <Link href={`/calls/${call.id}/diagnoses/${d.id}`} className={d.status === 'in_progress' && !closed ? 'btn-primary' : 'btn-secondary'}>
+                    <Link
+                      href={`/calls/${call.id}/diagnoses/${d.id}`}
+                      className={d.status === 'in_progress' && !closed ? 'btn-primary' : 'btn-secondary'}
+                    >
                       {d.status === 'in_progress' && !closed ? 'Continue' : 'Open'}
                       <span className="sr-only"> diagnosis {i + 1}</span>
                     </Link>

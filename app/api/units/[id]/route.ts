@@ -11,6 +11,12 @@ export const GET = route({ roles: FIELD_ROLES }, async ({ user, params }) => {
   return {
     ...unit,
     readings,
-    calls: calls.map((c) => ({ id: c.id, complaint: c.complaint, status: c.status, openedAt: c.openedAt, technicianName: c.technicianName })),
+    calls: calls.map((c) => ({
+      id: c.id,
+      complaint: c.complaint,
+      status: c.status,
+      openedAt: c.openedAt,
+      technicianName: c.technicianName,
+    })),
   };
 });

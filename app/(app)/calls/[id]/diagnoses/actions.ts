@@ -19,21 +19,23 @@ const undoAnswerSchema = z.object({ diagnosisId: z.uuid({ error: 'diagnosisId mu
  * conflicts come back as data rather than as errors.
  */
 export type SubmitAnswerOutcome =
-  | { type: 'saved'; result: AnswerResult }
-  | { type: 'refused'; message: string }
-  | { type: 'conflict'; message: string };
+  { type: 'saved'; result: AnswerResult } | { type: 'refused'; message: string } | { type: 'conflict'; message: string };
 
-export const submitAnswerAction = action({ roles: FIELD_ROLES, schema: submitAnswerSchema }, async ({ user, input }): Promise<SubmitAnswerOutcome> => {
-  try {
-    const result = await answerDiagnosis({ viewer: viewerOf(user), id: input.diagnosisId, input: input.answer });
-    revalidatePath('/calls', 'layout');
-    return { type: 'saved', result };
-  } catch (error) {
-    if (error instanceof AppError && error.code === 'conflict') return { type: 'conflict', message: error.message };
-    if (error instanceof AppError && (error.code === 'bad_request' || error.code === 'not_found')) return { type: 'refused', message: error.message };
-    throw error;
-  }
-});
+export const submitAnswerAction = action(
+  { roles: FIELD_ROLES, schema: submitAnswerSchema },
+  async ({ user, input }): Promise<SubmitAnswerOutcome> => {
+    try {
+      const result = await answerDiagnosis({ viewer: viewerOf(user), id: input.diagnosisId, input: input.answer });
+      revalidatePath('/calls', 'layout');
+      return { type: 'saved', result };
+    } catch (error) {
+      if (error instanceof AppError && error.code === 'conflict') return { type: 'conflict', message: error.message };
+      if (error instanceof AppError && (error.code === 'bad_request' || error.code === 'not_found'))
+        return { type: 'refused', message: error.message };
+      throw error;
+    }
+  },
+);
 
 export const undoAnswerAction = action({ roles: FIELD_ROLES, schema: undoAnswerSchema }, async ({ user, input }) => {
   const view = await undoLastAnswer({ viewer: viewerOf(user), id: input.diagnosisId });

@@ -6,5 +6,7 @@ import { viewerOf } from '@/lib/server/viewer';
 import { startDiagnosisSchema } from '@/lib/validations/field';
 
 export const POST = route({ roles: 'any', body: startDiagnosisSchema }, async ({ user, params, body }) =>
-  NextResponse.json(await startDiagnosis({ viewer: viewerOf(user), callId: params.id, treeVersionId: body.treeVersionId }), { status: 201 }),
+  NextResponse.json(await startDiagnosis({ viewer: viewerOf(user), callId: params.id, treeVersionId: body.treeVersionId }), {
+    status: 201,
+  }),
 );

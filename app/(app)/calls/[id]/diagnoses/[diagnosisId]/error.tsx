@@ -7,8 +7,8 @@ export default function DiagnosisError({ error, reset }: { error: Error & { dige
     <div className="mx-auto max-w-3xl space-y-4" role="alert">
       <h1 className="page-title">The diagnosis could not be shown</h1>
       <p>
-        {error.message && !error.digest ? error.message : 'Something went wrong on our side.'} Answers already given are kept on this
-        tablet and on the server; try again.
+        {error.message && !error.digest ? error.message : 'Something went wrong on our side.'} Answers already given are kept on this tablet
+        and on the server; try again.
       </p>
       <div className="flex flex-wrap gap-3">
         <button type="button" className="btn-primary" onClick={reset}>
