@@ -1,5 +1,6 @@
 import type { Metadata, Viewport } from 'next';
 import clsx from 'clsx';
+import { headers } from 'next/headers';
 import { mono, sans } from './fonts';
 import './globals.css';
 
@@ -20,11 +21,13 @@ export const viewport: Viewport = {
 // Sets the theme class before the first paint so a dark basement never sees a white flash.
 const themeScript = `try{var t=localStorage.getItem('pg-theme');if(t==='dark'||(!t&&matchMedia('(prefers-color-scheme: dark)').matches))document.documentElement.classList.add('dark')}catch(e){}`;
 
-export default function RootLayout({ children }: { children: React.ReactNode }) {
+export default async function RootLayout({ children }: { children: React.ReactNode }) {
+  // The Content-Security-Policy's nonce for this request (proxy.ts), so the theme script may run.
+  const nonce = (await headers()).get('x-nonce') ?? undefined;
   return (
     <html lang="en" className={clsx(sans.variable, mono.variable)} suppressHydrationWarning>
       <head>
-        <script dangerouslySetInnerHTML={{ __html: themeScript }} />
+        <script nonce={nonce} dangerouslySetInnerHTML={{ __html: themeScript }} />
       </head>
       <body className="min-h-dvh">{children}</body>
     </html>

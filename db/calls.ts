@@ -2,16 +2,10 @@ import 'server-only';
 import type { Knex } from 'knex';
 import { db } from '@/db/knex';
 import { isUuid } from '@/db/users';
-import { AppError, notFound } from '@/lib/errors';
+import { notFound } from '@/lib/errors';
+import type { Scope } from '@/lib/policy';
 import type { Role } from '@/lib/roles';
 import type { CallStatus } from '@/lib/validations/field';
-
-/** Who is asking: every call query is scoped by the viewer's company and role. */
-export interface Viewer {
-  id: string;
-  companyId: string;
-  role: Role;
-}
 
 export interface Verification {
   cycles: number;
@@ -39,27 +33,25 @@ export interface ServiceCall {
   closedByName: string | null;
 }
 
-/**
- * Technicians and apprentices see their own calls (a technician also sees apprentices' calls,
- * to sign off their findings); leads and admins see every call of the company; trainers none.
- */
-export function scopeCalls(query: Knex.QueryBuilder, viewer: Viewer, alias = 'c'): Knex.QueryBuilder {
-  query.where(`${alias}.company_id`, viewer.companyId);
-  if (viewer.role === 'lead' || viewer.role === 'admin') return query;
-  if (viewer.role === 'technician') {
+export const CLOSED_STATUSES: readonly CallStatus[] = ['closed', 'referred'];
+
+/** The calls a scope reaches (lib/policy.ts): its company's, narrowed to the user's own or supervised ones. */
+export function scopeCalls(query: Knex.QueryBuilder, scope: Scope, alias = 'c'): Knex.QueryBuilder {
+  query.where(`${alias}.company_id`, scope.companyId);
+  if (scope.reach === 'company') return query;
+  if (scope.reach === 'supervised') {
     return query.where((q) =>
       q
-        .where(`${alias}.technician_id`, viewer.id)
-        .orWhereIn(`${alias}.technician_id`, db('users').select('id').where({ company_id: viewer.companyId, role: 'apprentice' })),
+        .where(`${alias}.technician_id`, scope.userId)
+        .orWhereIn(`${alias}.technician_id`, db('users').select('id').where({ company_id: scope.companyId, role: 'apprentice' })),
     );
   }
-  if (viewer.role === 'apprentice') return query.where(`${alias}.technician_id`, viewer.id);
-  return query.whereRaw('false');
+  return query.where(`${alias}.technician_id`, scope.userId);
 }
 
-const callQuery = (viewer: Viewer) =>
+const callQuery = (scope: Scope, trx: Knex) =>
   scopeCalls(
-    db('service_calls as c')
+    trx('service_calls as c')
       .join('units as u', 'u.id', 'c.unit_id')
       .join('sites as s', 's.id', 'u.site_id')
       .leftJoin('users as t', 't.id', 'c.technician_id')
@@ -74,7 +66,7 @@ const callQuery = (viewer: Viewer) =>
         't.role as technician_role',
         'cb.name as closed_by_name',
       ),
-    viewer,
+    scope,
   );
 
 const toCall = (r: Record<string, unknown>): ServiceCall => ({
@@ -96,95 +88,93 @@ const toCall = (r: Record<string, unknown>): ServiceCall => ({
   closedByName: (r.closed_by_name as string | null) ?? null,
 });
 
-export async function listCalls({
-  viewer,
-  status,
-  technicianId,
-  unitId,
-}: {
-  viewer: Viewer;
-  status?: CallStatus;
-  technicianId?: string;
-  unitId?: string;
-}): Promise<ServiceCall[]> {
-  const q = callQuery(viewer).orderBy('c.opened_at', 'desc').limit(500);
+export async function listCalls(
+  { scope, status, technicianId, unitId }: { scope: Scope; status?: CallStatus; technicianId?: string; unitId?: string },
+  trx: Knex = db,
+): Promise<ServiceCall[]> {
+  const q = callQuery(scope, trx).orderBy('c.opened_at', 'desc').limit(500);
   if (status) q.where('c.status', status);
   if (technicianId) q.where('c.technician_id', technicianId);
   if (unitId) q.where('c.unit_id', unitId);
   return (await q).map(toCall);
 }
 
-export async function getCall({ viewer, id }: { viewer: Viewer; id: string }): Promise<ServiceCall> {
+/**
+ * One call the scope reaches. `lock` takes the call's row lock: `share` while changing something
+ * that hangs off the call (a diagnosis), `update` while changing the call itself. Locks are always
+ * taken call first, then diagnosis, so two units of work never wait on each other in a circle.
+ */
+export async function getCall(
+  { scope, id, lock }: { scope: Scope; id: string; lock?: 'share' | 'update' },
+  trx: Knex = db,
+): Promise<ServiceCall> {
   if (!isUuid(id)) throw notFound('That service call');
-  const row = await callQuery(viewer).where('c.id', id).first();
+  const q = callQuery(scope, trx).where('c.id', id);
+  if (lock === 'share') q.forShare('c');
+  if (lock === 'update') q.forUpdate('c');
+  const row = await q.first();
   if (!row) throw notFound('That service call');
   return toCall(row);
 }
 
-export async function createCall({
-  viewer,
-  unitId,
-  complaint,
-  technicianId,
-}: {
-  viewer: Viewer;
-  unitId: string;
-  complaint: string;
-  technicianId: string | null;
-}): Promise<ServiceCall> {
-  const [row] = await db('service_calls')
-    .insert({ company_id: viewer.companyId, unit_id: unitId, complaint, technician_id: technicianId, created_by: viewer.id })
-    .returning('id');
-  return getCall({ viewer: { ...viewer, role: 'admin' }, id: row.id });
-}
-
-export async function setCallStatus(
-  { viewer, id, status, from }: { viewer: Viewer; id: string; status: CallStatus; from?: CallStatus[] },
+export async function createCall(
+  {
+    companyId,
+    unitId,
+    complaint,
+    technicianId,
+    createdBy,
+  }: { companyId: string; unitId: string; complaint: string; technicianId: string | null; createdBy: string },
   trx: Knex = db,
-): Promise<void> {
-  const q = trx('service_calls').where({ id, company_id: viewer.companyId });
-  if (from) q.whereIn('status', from);
-  await q.update({ status });
+): Promise<string> {
+  const [row] = await trx('service_calls')
+    .insert({ company_id: companyId, unit_id: unitId, complaint, technician_id: technicianId, created_by: createdBy })
+    .returning('id');
+  return row.id;
 }
 
-export async function recordRepair({
-  viewer,
-  id,
-  repairNotes,
-  verification,
-}: {
-  viewer: Viewer;
-  id: string;
-  repairNotes: string;
-  verification: Verification;
-}): Promise<ServiceCall> {
-  const call = await getCall({ viewer, id });
-  if (call.status === 'closed' || call.status === 'referred')
-    throw new AppError('conflict', 'This call is closed; its record cannot change.');
-  await db('service_calls')
-    .where({ id, company_id: viewer.companyId })
+/** Moves the call to `status` if it is in one of `from`; says whether it did. */
+export async function setCallStatus(
+  { companyId, id, status, from }: { companyId: string; id: string; status: CallStatus; from: readonly CallStatus[] },
+  trx: Knex = db,
+): Promise<boolean> {
+  const count = await trx('service_calls')
+    .where({ id, company_id: companyId })
+    .whereIn('status', from as CallStatus[])
+    .update({ status });
+  return count > 0;
+}
+
+/** Stores the repair on a call that is still open; says whether it did. */
+export async function recordRepair(
+  { companyId, id, repairNotes, verification }: { companyId: string; id: string; repairNotes: string; verification: Verification },
+  trx: Knex = db,
+): Promise<boolean> {
+  const count = await trx('service_calls')
+    .where({ id, company_id: companyId })
+    .whereNotIn('status', CLOSED_STATUSES as CallStatus[])
     .update({ repair_notes: repairNotes, verification: JSON.stringify(verification), status: 'repaired' });
-  return getCall({ viewer, id });
+  return count > 0;
 }
 
-export async function closeCall({
-  viewer,
-  id,
-  outcome,
-}: {
-  viewer: Viewer;
-  id: string;
-  outcome: 'closed' | 'referred';
-}): Promise<ServiceCall> {
-  await db('service_calls')
-    .where({ id, company_id: viewer.companyId })
-    .update({ status: outcome, closed_at: db.fn.now(), closed_by: viewer.id });
-  return getCall({ viewer, id });
+/** Closes or refers a call that is still open; of several at once, exactly one does. */
+export async function closeCall(
+  { companyId, id, outcome, closedBy }: { companyId: string; id: string; outcome: 'closed' | 'referred'; closedBy: string },
+  trx: Knex = db,
+): Promise<boolean> {
+  const count = await trx('service_calls')
+    .where({ id, company_id: companyId })
+    .whereNotIn('status', CLOSED_STATUSES as CallStatus[])
+    .update({ status: outcome, closed_at: trx.fn.now(), closed_by: closedBy });
+  return count > 0;
 }
 
 /** Field users of the company a call can be assigned to. */
-export async function listAssignees({ companyId }: { companyId: string }) {
-  return db('users')
+export async function listAssignees(
+  { companyId }: { companyId: string },
+  trx: Knex = db,
+): Promise<{ id: string; name: string; role: Role }[]> {
+  return trx('users')
     .where({ company_id: companyId, active: true })
     .whereIn('role', ['apprentice', 'technician', 'lead'])
     .orderBy('name')

@@ -3,6 +3,10 @@ import type { Knex } from 'knex';
 import { db } from '@/db/knex';
 import { isUuid } from '@/db/users';
 import { notFound } from '@/lib/errors';
+import type { Scope } from '@/lib/policy';
+import type { EnergyState } from '@/lib/trees/schema';
+import type { CallStatus } from '@/lib/validations/field';
+import { scopeCalls } from '@/db/calls';
 
 export type DiagnosisStatus = 'in_progress' | 'found' | 'escalated';
 
@@ -21,6 +25,10 @@ export interface DiagnosisRecord {
   signedOffAt: Date | null;
   startedAt: Date;
   finishedAt: Date | null;
+  /** The machine's state id; null until first read after it was added (see migration 0400). */
+  currentState: string | null;
+  energy: EnergyState | null;
+  lastSeq: number;
 }
 
 export interface AnswerRecord {
@@ -59,6 +67,9 @@ const toDiagnosis = (r: Record<string, unknown>): DiagnosisRecord => ({
   signedOffAt: (r.signed_off_at as Date | null) ?? null,
   startedAt: r.started_at as Date,
   finishedAt: (r.finished_at as Date | null) ?? null,
+  currentState: (r.current_state as string | null) ?? null,
+  energy: (r.energy as EnergyState | null) ?? null,
+  lastSeq: (r.last_seq as number) ?? 0,
 });
 
 const toAnswer = (r: Record<string, unknown>): AnswerRecord => ({
@@ -88,43 +99,115 @@ const diagnosisQuery = (trx: Knex) =>
     .leftJoin('users as so', 'so.id', 'd.signed_off_by')
     .select('d.*', 'u.name as user_name', 'u.role as user_role', 'so.name as signed_off_by_name');
 
-/** Company scope only: the caller checks that the viewer may see the diagnosis's call. */
+/**
+ * The call of a diagnosis, if the scope reaches it, with the call's row lock when asked: the first
+ * statement of every unit of work that changes a diagnosis (locks are taken call, then diagnosis).
+ */
+export async function getCallOfDiagnosis(
+  { scope, diagnosisId, lock }: { scope: Scope; diagnosisId: string; lock?: 'share' | 'update' },
+  trx: Knex = db,
+): Promise<{ id: string; status: CallStatus; technicianId: string | null }> {
+  if (!isUuid(diagnosisId)) throw notFound('That diagnosis');
+  const q = scopeCalls(trx('service_calls as c').join('diagnoses as d', 'd.call_id', 'c.id'), scope)
+    .where({ 'd.id': diagnosisId, 'd.company_id': scope.companyId })
+    .select('c.id', 'c.status', 'c.technician_id');
+  if (lock === 'share') q.forShare('c');
+  if (lock === 'update') q.forUpdate('c');
+  const row = await q.first();
+  if (!row) throw notFound('That diagnosis');
+  return { id: row.id, status: row.status, technicianId: row.technician_id ?? null };
+}
+
+/** Company scope only: the caller has checked (getCallOfDiagnosis) that the scope reaches its call. */
 export async function getDiagnosis(
   { companyId, id, forUpdate = false }: { companyId: string; id: string; forUpdate?: boolean },
   trx: Knex = db,
 ): Promise<DiagnosisRecord> {
   if (!isUuid(id)) throw notFound('That diagnosis');
-  if (forUpdate) await trx('diagnoses').where({ id, company_id: companyId }).forUpdate().first('id');
-  const row = await diagnosisQuery(trx).where({ 'd.id': id, 'd.company_id': companyId }).first();
+  const q = diagnosisQuery(trx).where({ 'd.id': id, 'd.company_id': companyId });
+  if (forUpdate) q.forUpdate('d');
+  const row = await q.first();
   if (!row) throw notFound('That diagnosis');
   return toDiagnosis(row);
 }
 
-export async function listDiagnosesForCall({ companyId, callId }: { companyId: string; callId: string }): Promise<DiagnosisRecord[]> {
-  return (await diagnosisQuery(db).where({ 'd.company_id': companyId, 'd.call_id': callId }).orderBy('d.started_at')).map(toDiagnosis);
+export async function listDiagnosesForCall(
+  { companyId, callId }: { companyId: string; callId: string },
+  trx: Knex = db,
+): Promise<DiagnosisRecord[]> {
+  return (await diagnosisQuery(trx).where({ 'd.company_id': companyId, 'd.call_id': callId }).orderBy('d.started_at')).map(toDiagnosis);
 }
 
 export async function createDiagnosis(
-  { companyId, callId, treeVersionId, userId }: { companyId: string; callId: string; treeVersionId: string; userId: string },
+  {
+    companyId,
+    callId,
+    treeVersionId,
+    userId,
+    currentState,
+    energy,
+  }: { companyId: string; callId: string; treeVersionId: string; userId: string; currentState: string; energy: EnergyState },
   trx: Knex = db,
 ): Promise<string> {
   const [row] = await trx('diagnoses')
-    .insert({ company_id: companyId, call_id: callId, tree_version_id: treeVersionId, user_id: userId })
+    .insert({
+      company_id: companyId,
+      call_id: callId,
+      tree_version_id: treeVersionId,
+      user_id: userId,
+      current_state: currentState,
+      energy,
+    })
     .returning('id');
   return row.id;
 }
 
-export async function updateDiagnosisOutcome(
-  { companyId, id, status, findingStepId }: { companyId: string; id: string; status: DiagnosisStatus; findingStepId: string | null },
+/** Where the diagnosis stands after an answer or an undo (or after a replay filled in an older row). */
+export async function saveDiagnosisState(
+  {
+    companyId,
+    id,
+    status,
+    findingStepId,
+    currentState,
+    energy,
+    lastSeq,
+    clearSignOff = false,
+  }: {
+    companyId: string;
+    id: string;
+    status: DiagnosisStatus;
+    findingStepId: string | null;
+    currentState: string;
+    energy: EnergyState;
+    lastSeq: number;
+    clearSignOff?: boolean;
+  },
   trx: Knex = db,
 ): Promise<void> {
   await trx('diagnoses')
     .where({ id, company_id: companyId })
-    .update({ status, finding_step_id: findingStepId, finished_at: status === 'in_progress' ? null : trx.fn.now() });
+    .update({
+      status,
+      finding_step_id: findingStepId,
+      finished_at: status === 'in_progress' ? null : trx.fn.now(),
+      current_state: currentState,
+      energy,
+      last_seq: lastSeq,
+      ...(clearSignOff ? { signed_off_by: null, signed_off_at: null } : {}),
+    });
 }
 
-export async function signOffDiagnosis({ companyId, id, userId }: { companyId: string; id: string; userId: string }): Promise<void> {
-  await db('diagnoses').where({ id, company_id: companyId }).update({ signed_off_by: userId, signed_off_at: db.fn.now() });
+/** Signs off a finding not yet signed off; of several at once, exactly one does. */
+export async function signOffDiagnosis(
+  { companyId, id, userId }: { companyId: string; id: string; userId: string },
+  trx: Knex = db,
+): Promise<boolean> {
+  const count = await trx('diagnoses')
+    .where({ id, company_id: companyId, status: 'found' })
+    .whereNull('signed_off_by')
+    .update({ signed_off_by: userId, signed_off_at: trx.fn.now() });
+  return count > 0;
 }
 
 /** The answers on the path (not undone), in order. */
@@ -137,20 +220,23 @@ export async function listPathAnswers(
   );
 }
 
-export async function listAnswersForDiagnoses({
-  companyId,
-  diagnosisIds,
-}: {
-  companyId: string;
-  diagnosisIds: string[];
-}): Promise<(AnswerRecord & { diagnosisId: string })[]> {
+export async function listAnswersForDiagnoses(
+  { companyId, diagnosisIds }: { companyId: string; diagnosisIds: string[] },
+  trx: Knex = db,
+): Promise<(AnswerRecord & { diagnosisId: string })[]> {
   if (!diagnosisIds.length) return [];
-  const rows = await db('answers')
+  const rows = await trx('answers')
     .where('company_id', companyId)
     .whereIn('diagnosis_id', diagnosisIds)
     .whereNull('undone_at')
     .orderBy(['diagnosis_id', 'seq']);
   return rows.map((r: Record<string, unknown>) => ({ ...toAnswer(r), diagnosisId: r.diagnosis_id as string }));
+}
+
+/** The highest sequence number given on the diagnosis, undone answers included. */
+export async function maxAnswerSeq({ diagnosisId }: { diagnosisId: string }, trx: Knex = db): Promise<number> {
+  const row = await trx('answers').where({ diagnosis_id: diagnosisId }).max('seq as max').first();
+  return Number(row?.max ?? 0);
 }
 
 export async function findAnswerByClientId(
@@ -176,40 +262,58 @@ export interface NewAnswer {
   confirmed?: boolean | null;
 }
 
+/**
+ * Stores one answer. The caller holds the diagnosis's row lock and gives the answer its id, its
+ * sequence number (the diagnosis's last_seq + 1) and the response a retried save gets back, so the
+ * save is one insert.
+ */
 export async function insertAnswer(
-  { companyId, diagnosisId, userId, answer }: { companyId: string; diagnosisId: string; userId: string; answer: NewAnswer },
+  {
+    companyId,
+    diagnosisId,
+    userId,
+    id,
+    seq,
+    createdAt,
+    answer,
+    response,
+  }: {
+    companyId: string;
+    diagnosisId: string;
+    userId: string;
+    id: string;
+    seq: number;
+    createdAt: Date;
+    answer: NewAnswer;
+    response: unknown;
+  },
   trx: Knex = db,
-): Promise<AnswerRecord> {
-  const [{ next }] = await trx('answers').where({ diagnosis_id: diagnosisId }).select(trx.raw('coalesce(max(seq), 0) + 1 as next'));
-  const [row] = await trx('answers')
-    .insert({
-      company_id: companyId,
-      diagnosis_id: diagnosisId,
-      user_id: userId,
-      seq: next,
-      client_id: answer.clientId,
-      step_id: answer.stepId,
-      step_kind: answer.stepKind,
-      text: answer.text ?? null,
-      value: answer.value ?? null,
-      unit: answer.unit ?? null,
-      quantity: answer.quantity ?? null,
-      band_index: answer.bandIndex ?? null,
-      band_label: answer.bandLabel ?? null,
-      verdict: answer.verdict ?? null,
-      choice: answer.choice ?? null,
-      confirmed: answer.confirmed ?? null,
-    })
-    .returning('*');
-  return toAnswer(row);
+): Promise<void> {
+  await trx('answers').insert({
+    id,
+    company_id: companyId,
+    diagnosis_id: diagnosisId,
+    user_id: userId,
+    seq,
+    created_at: createdAt,
+    client_id: answer.clientId,
+    step_id: answer.stepId,
+    step_kind: answer.stepKind,
+    text: answer.text ?? null,
+    value: answer.value ?? null,
+    unit: answer.unit ?? null,
+    quantity: answer.quantity ?? null,
+    band_index: answer.bandIndex ?? null,
+    band_label: answer.bandLabel ?? null,
+    verdict: answer.verdict ?? null,
+    choice: answer.choice ?? null,
+    confirmed: answer.confirmed ?? null,
+    response: JSON.stringify(response),
+  });
 }
 
-export async function saveAnswerResponse({ id, response }: { id: string; response: unknown }, trx: Knex = db): Promise<void> {
-  await trx('answers')
-    .where({ id })
-    .update({ response: JSON.stringify(response) });
-}
-
-export async function markAnswerUndone({ id }: { id: string }, trx: Knex = db): Promise<void> {
-  await trx('answers').where({ id }).update({ undone_at: trx.fn.now() });
+/** Takes the answer off the path if it still is on it; says whether it did (one of two undos at once). */
+export async function markAnswerUndone({ id }: { id: string }, trx: Knex = db): Promise<boolean> {
+  const count = await trx('answers').where({ id }).whereNull('undone_at').update({ undone_at: trx.fn.now() });
+  return count > 0;
 }

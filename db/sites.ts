@@ -1,4 +1,5 @@
 import 'server-only';
+import type { Knex } from 'knex';
 import { db } from '@/db/knex';
 import { isUuid } from '@/db/users';
 import { notFound } from '@/lib/errors';
@@ -17,19 +18,22 @@ const toSite = (r: Record<string, unknown>): Site => ({
   contactEmail: (r.contact_email as string | null) ?? null,
 });
 
-export async function listSites({ companyId }: { companyId: string }): Promise<Site[]> {
-  return (await db('sites').where({ company_id: companyId }).orderBy('name')).map(toSite);
+export async function listSites({ companyId }: { companyId: string }, trx: Knex = db): Promise<Site[]> {
+  return (await trx('sites').where({ company_id: companyId }).orderBy('name')).map(toSite);
 }
 
-export async function getSite({ companyId, id }: { companyId: string; id: string }): Promise<Site> {
+export async function getSite({ companyId, id }: { companyId: string; id: string }, trx: Knex = db): Promise<Site> {
   if (!isUuid(id)) throw notFound('That site');
-  const row = await db('sites').where({ company_id: companyId, id }).first();
+  const row = await trx('sites').where({ company_id: companyId, id }).first();
   if (!row) throw notFound('That site');
   return toSite(row);
 }
 
-export async function createSite(input: { companyId: string; name: string; address: string; contactEmail?: string | null }): Promise<Site> {
-  const [row] = await db('sites')
+export async function createSite(
+  input: { companyId: string; name: string; address: string; contactEmail?: string | null },
+  trx: Knex = db,
+): Promise<Site> {
+  const [row] = await trx('sites')
     .insert({ company_id: input.companyId, name: input.name, address: input.address, contact_email: input.contactEmail ?? null })
     .returning('*');
   return toSite(row);

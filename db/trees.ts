@@ -1,4 +1,5 @@
 import 'server-only';
+import type { Knex } from 'knex';
 import { db } from '@/db/knex';
 import { isUuid } from '@/db/users';
 import { notFound } from '@/lib/errors';
@@ -27,10 +28,10 @@ export interface TreeVersionRecord {
   createdAt: Date;
 }
 
-export async function listTrees({ companyId }: { companyId: string }): Promise<TreeSummary[]> {
-  const rows = await db('fault_trees as t')
+export async function listTrees({ companyId }: { companyId: string }, trx: Knex = db): Promise<TreeSummary[]> {
+  const rows = await trx('fault_trees as t')
     .leftJoin(
-      db('tree_versions').where('status', 'published').select('tree_id').max('version as version').groupBy('tree_id').as('p'),
+      trx('tree_versions').where('status', 'published').select('tree_id').max('version as version').groupBy('tree_id').as('p'),
       'p.tree_id',
       't.id',
     )
@@ -50,14 +51,31 @@ export async function listTrees({ companyId }: { companyId: string }): Promise<T
   }));
 }
 
-export async function getTreeVersion({ companyId, id }: { companyId: string; id: string }): Promise<TreeVersionRecord> {
+// A published (or retired) version never changes (a trigger enforces it), so its parsed graph is
+// kept for the life of the process: a save neither reads nor parses the graph again, and the
+// machine compiled from it (machines/diagnosis-machine.ts, keyed by version id) is reused.
+const immutable = new Map<string, TreeVersionRecord & { companyId: string }>();
+const MAX_CACHED = 500;
+
+/**
+ * One version of the company's trees. A cached immutable version may show an old status (publishing
+ * later retires it): pass `fresh` where the status decides something, such as starting a diagnosis.
+ */
+export async function getTreeVersion(
+  { companyId, id, fresh = false }: { companyId: string; id: string; fresh?: boolean },
+  trx: Knex = db,
+): Promise<TreeVersionRecord> {
   if (!isUuid(id)) throw notFound('That tree version');
-  const row = await db('tree_versions as v')
+  const cached = immutable.get(id);
+  if (cached && cached.companyId !== companyId) throw notFound('That tree version');
+  if (cached && !fresh) return cached;
+  // With the graph cached, only the small columns are read.
+  const row = await trx('tree_versions as v')
     .join('fault_trees as t', 't.id', 'v.tree_id')
     .where({ 'v.id': id, 'v.company_id': companyId })
-    .first('v.*', 't.slug', 't.title');
+    .first(...(cached ? ['v.id', 'v.tree_id', 'v.version', 'v.status', 'v.published_at', 'v.created_at'] : ['v.*']), 't.slug', 't.title');
   if (!row) throw notFound('That tree version');
-  return {
+  const record: TreeVersionRecord = {
     id: row.id,
     treeId: row.tree_id,
     slug: row.slug,
@@ -65,8 +83,13 @@ export async function getTreeVersion({ companyId, id }: { companyId: string; id:
     version: row.version,
     status: row.status,
     // Stored graphs were validated on save; parsing applies schema defaults to older rows too.
-    graph: treeGraphSchema.parse(row.graph),
+    graph: cached?.graph ?? treeGraphSchema.parse(row.graph),
     publishedAt: row.published_at,
     createdAt: row.created_at,
   };
+  if (record.status === 'published' || record.status === 'retired') {
+    if (immutable.size >= MAX_CACHED) immutable.delete(immutable.keys().next().value!);
+    immutable.set(id, { ...record, companyId });
+  }
+  return record;
 }

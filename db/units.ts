@@ -1,4 +1,5 @@
 import 'server-only';
+import type { Knex } from 'knex';
 import { db } from '@/db/knex';
 import { getSite } from '@/db/sites';
 import { isUuid } from '@/db/users';
@@ -46,28 +47,28 @@ const toUnit = (r: Record<string, unknown>): Unit => ({
   installYear: (r.install_year as number | null) ?? null,
 });
 
-const unitQuery = (companyId: string) =>
-  db('units as u')
+const unitQuery = (companyId: string, trx: Knex) =>
+  trx('units as u')
     .join('sites as s', 's.id', 'u.site_id')
     .where('u.company_id', companyId)
     .select('u.*', 's.name as site_name', 's.address as site_address');
 
-export async function listUnits({ companyId, siteId }: { companyId: string; siteId?: string }): Promise<Unit[]> {
-  const q = unitQuery(companyId).orderBy(['s.name', 'u.label']);
+export async function listUnits({ companyId, siteId }: { companyId: string; siteId?: string }, trx: Knex = db): Promise<Unit[]> {
+  const q = unitQuery(companyId, trx).orderBy(['s.name', 'u.label']);
   if (siteId) q.where('u.site_id', siteId);
   return (await q).map(toUnit);
 }
 
-export async function getUnit({ companyId, id }: { companyId: string; id: string }): Promise<Unit> {
+export async function getUnit({ companyId, id }: { companyId: string; id: string }, trx: Knex = db): Promise<Unit> {
   if (!isUuid(id)) throw notFound('That unit');
-  const row = await unitQuery(companyId).where('u.id', id).first();
+  const row = await unitQuery(companyId, trx).where('u.id', id).first();
   if (!row) throw notFound('That unit');
   return toUnit(row);
 }
 
-export async function createUnit({ companyId, input }: { companyId: string; input: UnitInput }): Promise<Unit> {
-  await getSite({ companyId, id: input.siteId });
-  const [row] = await db('units')
+export async function createUnit({ companyId, input }: { companyId: string; input: UnitInput }, trx: Knex = db): Promise<Unit> {
+  await getSite({ companyId, id: input.siteId }, trx);
+  const [row] = await trx('units')
     .insert({
       company_id: companyId,
       site_id: input.siteId,
@@ -79,12 +80,15 @@ export async function createUnit({ companyId, input }: { companyId: string; inpu
       install_year: input.installYear ?? null,
     })
     .returning('id');
-  return getUnit({ companyId, id: row.id });
+  return getUnit({ companyId, id: row.id }, trx);
 }
 
 /** Every reading taken on the unit (answers with a value, not undone), oldest first. */
-export async function listUnitReadings({ companyId, unitId }: { companyId: string; unitId: string }): Promise<UnitReading[]> {
-  const rows = await db('answers as a')
+export async function listUnitReadings(
+  { companyId, unitId }: { companyId: string; unitId: string },
+  trx: Knex = db,
+): Promise<UnitReading[]> {
+  const rows = await trx('answers as a')
     .join('diagnoses as d', 'd.id', 'a.diagnosis_id')
     .join('service_calls as c', 'c.id', 'd.call_id')
     .join('tree_versions as v', 'v.id', 'd.tree_version_id')
@@ -95,7 +99,7 @@ export async function listUnitReadings({ companyId, unitId }: { companyId: strin
     .select(
       'a.*',
       'd.call_id',
-      db.raw(`(SELECT s->>'title' FROM jsonb_array_elements(v.graph->'steps') s WHERE s->>'id' = a.step_id LIMIT 1) as step_title`),
+      trx.raw(`(SELECT s->>'title' FROM jsonb_array_elements(v.graph->'steps') s WHERE s->>'id' = a.step_id LIMIT 1) as step_title`),
     );
   return rows.map((r: Record<string, unknown>) => ({
     answerId: r.id as string,

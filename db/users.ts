@@ -42,6 +42,13 @@ const COLUMNS = [
   'users.created_at',
 ];
 
+/** The user columns a session check reads (with `companies.name as company_name`). */
+export const SESSION_USER_COLUMNS: readonly string[] = COLUMNS;
+
+export function toSessionUser(row: UserRow): UserWithCompany {
+  return { ...toUser(row), companyName: row.company_name! };
+}
+
 function toUser(row: UserRow): User {
   return {
     id: row.id,
@@ -65,16 +72,6 @@ export async function getUserForSignIn({ email }: { email: string }): Promise<(U
     .whereRaw('lower(users.email) = lower(?)', [email])
     .first([...COLUMNS, 'users.password_hash', 'companies.name as company_name']);
   return row ? { ...toUser(row), companyName: row.company_name!, passwordHash: row.password_hash! } : null;
-}
-
-/** For the session check: the user behind a session cookie, with their company's name. */
-export async function getSessionUser({ id }: { id: string }): Promise<UserWithCompany | null> {
-  if (!isUuid(id)) return null;
-  const row = await db('users')
-    .join('companies', 'companies.id', 'users.company_id')
-    .where('users.id', id)
-    .first([...COLUMNS, 'companies.name as company_name']);
-  return row ? { ...toUser(row), companyName: row.company_name! } : null;
 }
 
 export async function listUsers({ companyId, roles }: { companyId: string; roles?: readonly Role[] }): Promise<User[]> {

@@ -1,18 +1,20 @@
 // One error type for the whole server side. Its code maps to an HTTP status in route handlers and
-// to a message in server actions; a database message never reaches the client.
-export type ErrorCode =
-  'bad_request' | 'unauthorized' | 'forbidden' | 'not_found' | 'conflict' | 'rate_limited' | 'unavailable' | 'internal';
-
-const STATUS: Record<ErrorCode, number> = {
+// travels as `code` in a server action's result; a database message never reaches the client.
+export const ERROR_STATUS = {
   bad_request: 400,
   unauthorized: 401,
   forbidden: 403,
   not_found: 404,
+  method_not_allowed: 405,
   conflict: 409,
+  payload_too_large: 413,
+  unsupported_media_type: 415,
   rate_limited: 429,
-  unavailable: 503,
   internal: 500,
-};
+  unavailable: 503,
+} as const;
+
+export type ErrorCode = keyof typeof ERROR_STATUS;
 
 export type FieldErrors = Record<string, string[]>;
 
@@ -30,7 +32,7 @@ export class AppError extends Error {
   }
 
   get status(): number {
-    return STATUS[this.code];
+    return ERROR_STATUS[this.code];
   }
 }
 

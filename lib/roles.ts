@@ -1,5 +1,7 @@
-// Roles and what each may open. Navigation is derived from this; the server checks roles itself
-// in every action and handler (lib/server/guard.ts), this only decides what is shown.
+// Roles, their labels, and the navigation each sees. Who may open what is the access policy's
+// (lib/policy.ts); the navigation only shows what the policy lets the role open.
+import { mayOpen, type PagePath } from '@/lib/policy';
+
 export const ROLES = ['apprentice', 'technician', 'lead', 'trainer', 'admin'] as const;
 export type Role = (typeof ROLES)[number];
 
@@ -11,33 +13,21 @@ export const ROLE_LABELS: Record<Role, string> = {
   admin: 'Admin',
 };
 
-/** Who works real service calls; leads and admins see every call of the company. */
-export const FIELD_ROLES: readonly Role[] = ['apprentice', 'technician', 'lead', 'admin'];
-export const CALL_SUPERVISORS: readonly Role[] = ['lead', 'admin'];
-
 export interface NavItem {
-  href: string;
+  href: '/' | PagePath;
   label: string;
-  roles: readonly Role[];
 }
 
 export const NAV_ITEMS: readonly NavItem[] = [
-  { href: '/', label: 'Home', roles: ROLES },
-  { href: '/calls', label: 'Service calls', roles: FIELD_ROLES },
-  { href: '/units', label: 'Units', roles: ['technician', 'lead', 'admin'] },
-  { href: '/trees', label: 'Fault trees', roles: ['lead', 'admin'] },
-  { href: '/practice', label: 'Practice', roles: ['apprentice', 'trainer'] },
-  { href: '/admin/users', label: 'Users', roles: ['admin'] },
-  { href: '/admin/company', label: 'Company', roles: ['admin'] },
+  { href: '/', label: 'Home' },
+  { href: '/calls', label: 'Service calls' },
+  { href: '/units', label: 'Units' },
+  { href: '/trees', label: 'Fault trees' },
+  { href: '/practice', label: 'Practice' },
+  { href: '/admin/users', label: 'Users' },
+  { href: '/admin/company', label: 'Company' },
 ];
 
 export function navFor(role: Role): NavItem[] {
-  return NAV_ITEMS.filter((item) => item.roles.includes(role));
-}
-
-export function canOpen(role: Role, pathname: string): boolean {
-  const match = [...NAV_ITEMS]
-    .filter((item) => item.href !== '/' && (pathname === item.href || pathname.startsWith(`${item.href}/`)))
-    .sort((a, b) => b.href.length - a.href.length)[0];
-  return match ? match.roles.includes(role) : true;
+  return NAV_ITEMS.filter((item) => item.href === '/' || mayOpen(role, item.href));
 }

@@ -5,7 +5,7 @@
 //
 // Findings are final states of `walk`, not of the machine, so the actor stays active at a finding
 // and `answer.undo` still works there.
-import { assign, createActor, setup, type Actor, type SnapshotFrom, type StateValue } from 'xstate';
+import { assign, createActor, setup, transition, type Actor, type SnapshotFrom, type StateValue } from 'xstate';
 import { findBand } from '@/lib/bands';
 import { LOCK_OUT_PREFIX, RE_ENERGIZE_PREFIX, stepMap } from '@/lib/trees/graph';
 import type { ActionStep, Caution, EnergyState, Step, TreeGraph, TreeVersion } from '@/lib/trees/schema';
@@ -326,6 +326,14 @@ export type DiagnosisMachine = ReturnType<typeof createDiagnosisMachine>;
 export type DiagnosisSnapshot = SnapshotFrom<DiagnosisMachine>;
 export type DiagnosisActor = Actor<DiagnosisMachine>;
 
+// Step lookups run on every answer; one map per graph object serves them all.
+const stepMaps = new WeakMap<TreeGraph, Map<string, Step>>();
+function stepsOf(graph: TreeGraph): Map<string, Step> {
+  let map = stepMaps.get(graph);
+  if (!map) stepMaps.set(graph, (map = stepMap(graph)));
+  return map;
+}
+
 function graphOf(source: DiagnosisMachine | TreeGraph | TreeVersion): TreeGraph {
   if ('graph' in source && 'version' in source) return source.graph;
   if ('steps' in source && 'start' in source) return source;
@@ -336,7 +344,7 @@ function graphOf(source: DiagnosisMachine | TreeGraph | TreeVersion): TreeGraph 
 
 /** The Step of any state id: a tree step, or a synthesised lock-out / re-energize procedure. */
 export function getStep(source: DiagnosisMachine | TreeGraph | TreeVersion, stateId: string): Step | undefined {
-  const steps = stepMap(graphOf(source));
+  const steps = stepsOf(graphOf(source));
   const direct = steps.get(stateId);
   if (direct) return direct;
   for (const kind of ['lock-out', 're-energize'] as const) {
@@ -354,11 +362,6 @@ export function stateIdOf(stateValue: StateValue): string | undefined {
   if (typeof stateValue === 'string') return stateValue === 'walk' ? undefined : stateValue;
   const inner = (stateValue as { walk?: unknown }).walk;
   return typeof inner === 'string' ? inner : undefined;
-}
-
-export function stepForState(treeVersion: TreeVersion, stateValue: StateValue): Step | undefined {
-  const id = stateIdOf(stateValue);
-  return id === undefined ? undefined : getStep(treeVersion, id);
 }
 
 export function currentStep(snapshot: DiagnosisSnapshot): Step {
@@ -389,16 +392,62 @@ export function answerEvent(step: Step, answer: DiagnosisAnswer): { ok: true; ev
   }
 }
 
-// Compiling is the costly part of a replay; a tree version's graph never changes once published,
-// so one machine per graph object serves every replay of it.
-const compiled = new WeakMap<TreeGraph, { id: string; version: number; machine: DiagnosisMachine }>();
+// Compiling is the costly part of a replay. A tree version is immutable once published, so one
+// machine per version id serves every diagnosis of it; the graph object is checked too, so a draft
+// whose graph was edited (same id, new graph) is compiled again.
+const compiled = new Map<string, { graph: TreeGraph; version: number; machine: DiagnosisMachine }>();
+const MAX_COMPILED = 200;
 
 function machineFor(treeVersion: TreeVersion): DiagnosisMachine {
-  const hit = compiled.get(treeVersion.graph);
-  if (hit && hit.id === treeVersion.id && hit.version === treeVersion.version) return hit.machine;
+  const hit = compiled.get(treeVersion.id);
+  if (hit && hit.graph === treeVersion.graph && hit.version === treeVersion.version) return hit.machine;
   const machine = createDiagnosisMachine(treeVersion);
-  compiled.set(treeVersion.graph, { id: treeVersion.id, version: treeVersion.version, machine });
+  if (!hit && compiled.size >= MAX_COMPILED) compiled.delete(compiled.keys().next().value!);
+  compiled.set(treeVersion.id, { graph: treeVersion.graph, version: treeVersion.version, machine });
   return machine;
+}
+
+/** Where a diagnosis stands, as kept on its row: enough to take the next answer without a replay. */
+export interface WalkState {
+  /** The machine's state id: a tree step or an inserted procedure. */
+  stateId: string;
+  energy: EnergyState;
+  findingId: string | null;
+}
+
+export function walkStateOf(snapshot: DiagnosisSnapshot): WalkState {
+  return { stateId: stateIdOf(snapshot.value)!, energy: snapshot.context.energy, findingId: snapshot.context.findingId };
+}
+
+/** Where a new diagnosis of this version starts (an inserted procedure when the first step needs one). */
+export function startState(treeVersion: TreeVersion): WalkState {
+  return walkStateOf(
+    createActor(machineFor(treeVersion), { input: { treeVersionId: treeVersion.id, version: treeVersion.version } }).getSnapshot(),
+  );
+}
+
+/**
+ * One answer from a known state: the same machine and guards as a replay, one transition instead
+ * of the whole path. The path in the machine's context (kept for undo) is not needed going forward.
+ */
+export function advance(
+  treeVersion: TreeVersion,
+  state: WalkState,
+  answer: DiagnosisAnswer,
+): { ok: true; state: WalkState; step: Step } | { ok: false; error: string } {
+  const machine = machineFor(treeVersion);
+  const step = getStep(machine, state.stateId);
+  if (!step) return { ok: false, error: `"${state.stateId}" is not a step of this tree version` };
+  const made = answerEvent(step, answer);
+  if (!made.ok) return made;
+  const snapshot = machine.resolveState({
+    value: { walk: state.stateId },
+    context: { treeVersionId: treeVersion.id, version: treeVersion.version, energy: state.energy, path: [], findingId: state.findingId },
+  });
+  if (!snapshot.can(made.event)) return { ok: false, error: `The answer to "${answer.stepId}" leads nowhere in this tree version` };
+  const [next] = transition(machine, snapshot, made.event);
+  const nextState = walkStateOf(next);
+  return { ok: true, state: nextState, step: getStep(machine, nextState.stateId)! };
 }
 
 export type ReplayResult =

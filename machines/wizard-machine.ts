@@ -50,17 +50,27 @@ export interface ServerAnswer {
   at: string | Date;
 }
 
+/** What the server says of a reached finding: the readings that contradict it. */
+export interface FindingCheck {
+  findingId: string;
+  contradictions: { stepId: string; value: number; expected: { from?: number; to?: number }; reason: string; takenAt?: string }[];
+}
+
 export interface WizardView {
   id: string;
   path: ServerAnswer[];
+  finding?: { id: string } | null;
+  contradictions?: FindingCheck['contradictions'];
 }
 
 export type SaveOutcome =
-  | { type: 'saved'; answer: ServerAnswer }
+  | { type: 'saved'; answer: ServerAnswer; diagnosis?: { status: string; contradictions: FindingCheck['contradictions'] } }
   /** The server refused the answer itself (a 4xx for bad input): roll back to its step. */
   | { type: 'refused'; message: string }
   /** Someone else moved the diagnosis (409): drop the queue and reload. */
-  | { type: 'conflict'; message: string };
+  | { type: 'conflict'; message: string }
+  /** The session ended or the role may not do this (401/403): keep the queue, stop retrying, ask to sign in. */
+  | { type: 'signed-out'; message: string };
 
 export interface Refusal {
   stepId: string;
@@ -83,6 +93,8 @@ export interface WizardContext {
   /** Something the user should know that is not about one answer (a reload after a conflict, an undo that failed). */
   notice: string | null;
   online: boolean;
+  /** The server's word on the finding reached, once it holds every answer; null before. */
+  findingCheck: FindingCheck | null;
   /** Failed attempts of the save at the head of the queue, for the backoff. */
   attempts: number;
   lastError: string | null;
@@ -174,12 +186,17 @@ function derive(version: TreeVersion, saved: readonly WizardAnswer[], pending: r
   return { stepId, energy, findingId };
 }
 
+function findingCheckOf(view: WizardView): FindingCheck | null {
+  return view.finding ? { findingId: view.finding.id, contradictions: view.contradictions ?? [] } : null;
+}
+
 function applyView(context: WizardContext, view: WizardView) {
   const saved = view.path.map(toSavedAnswer);
   const { pending, dropped } = reconcileQueue(context.version, saved, context.pending);
   return {
     saved,
     pending,
+    findingCheck: findingCheckOf(view),
     ...derive(context.version, saved, pending),
     ...(dropped > 0
       ? {
@@ -209,7 +226,7 @@ export const wizardMachine = setup({
     saveAnswer: fromPromise<SaveOutcome, { diagnosisId: string; answer: PendingAnswer }>(async () => {
       throw new Error('saveAnswer is not provided');
     }),
-    undoAnswer: fromPromise<WizardView, { diagnosisId: string }>(async () => {
+    undoAnswer: fromPromise<WizardView, { diagnosisId: string; last?: string }>(async () => {
       throw new Error('undoAnswer is not provided');
     }),
     loadView: fromPromise<WizardView, { diagnosisId: string }>(async () => {
@@ -217,9 +234,8 @@ export const wizardMachine = setup({
     }),
   },
   actions: {
-    // Provided by the component: keep the queue in storage; refresh the server view.
+    // Provided by the component: keep the queue in storage.
     persistQueue: (_, _params: { pending: PendingAnswer[] }) => {},
-    revalidate: () => {},
     enqueue: assign(({ context, event }) => {
       if (event.type !== 'answer.submit') return {};
       const step = getStep(context.version, event.answer.stepId) as Step;
@@ -240,7 +256,13 @@ export const wizardMachine = setup({
       const known = context.saved.some((s) => s.clientId === answer.clientId);
       // The server stores the text and unit it parsed; keep what the user typed if it said nothing.
       const saved = known ? context.saved : [...context.saved, { ...local, ...answer, text: answer.text ?? local?.text }];
-      return { saved, pending, attempts: 0, lastError: null, ...derive(context.version, saved, pending) };
+      const walked = derive(context.version, saved, pending);
+      // The save answers with the finding's check, so nothing is fetched again to show it.
+      const findingCheck =
+        params.outcome.diagnosis?.status === 'found' && pending.length === 0 && walked.findingId
+          ? { findingId: walked.findingId, contradictions: params.outcome.diagnosis.contradictions }
+          : null;
+      return { saved, pending, attempts: 0, lastError: null, findingCheck, ...walked };
     }),
     rollback: assign(({ context }, params: { outcome: SaveOutcome }) => {
       if (params.outcome.type !== 'refused') return {};
@@ -264,6 +286,15 @@ export const wizardMachine = setup({
         lastError: null,
         notice: `${params.outcome.message} The diagnosis was reloaded; answers not yet saved were dropped.`,
         ...derive(context.version, context.saved, pending),
+      };
+    }),
+    holdForSignIn: assign(({ context }, params: { outcome: SaveOutcome }) => {
+      if (params.outcome.type !== 'signed-out') return {};
+      const n = context.pending.length;
+      return {
+        attempts: 0,
+        lastError: params.outcome.message,
+        notice: `${params.outcome.message} Sign in again — your ${n === 1 ? 'answer is' : `${n} answers are`} kept on this device and will be sent then.`,
       };
     }),
     recordFailure: assign(({ context, event }) => {
@@ -305,6 +336,7 @@ export const wizardMachine = setup({
       context.pending.every((p) => p.clientId === (params.outcome as { answer: ServerAnswer }).answer.clientId),
     isRefused: (_, params: { outcome: SaveOutcome }) => params.outcome.type === 'refused',
     isConflict: (_, params: { outcome: SaveOutcome }) => params.outcome.type === 'conflict',
+    isSignedOut: (_, params: { outcome: SaveOutcome }) => params.outcome.type === 'signed-out',
   },
   delays: {
     retryDelay: ({ context }) => retryDelayMs(context.attempts),
@@ -323,6 +355,7 @@ export const wizardMachine = setup({
       refusal: null,
       notice: null,
       online: input.online ?? true,
+      findingCheck: findingCheckOf(input.view),
       attempts: 0,
       lastError: null,
     };
@@ -373,7 +406,6 @@ export const wizardMachine = setup({
             actions: [
               { type: 'commit', params: ({ event }) => ({ outcome: event.output }) },
               { type: 'persistQueue', params: ({ context }) => ({ pending: context.pending }) },
-              'revalidate',
             ],
           },
           {
@@ -391,6 +423,11 @@ export const wizardMachine = setup({
               { type: 'rollback', params: ({ event }) => ({ outcome: event.output }) },
               { type: 'persistQueue', params: ({ context }) => ({ pending: context.pending }) },
             ],
+          },
+          {
+            guard: { type: 'isSignedOut', params: ({ event }) => ({ outcome: event.output }) },
+            target: 'signedOut',
+            actions: [{ type: 'holdForSignIn', params: ({ event }) => ({ outcome: event.output }) }],
           },
           {
             target: 'reloading',
@@ -416,8 +453,9 @@ export const wizardMachine = setup({
       on: { 'view.loaded': { actions: [] } },
       invoke: {
         src: 'undoAnswer',
-        input: ({ context }) => ({ diagnosisId: context.diagnosisId }),
-        onDone: { target: 'idle', actions: [{ type: 'applyView', params: ({ event }) => ({ view: event.output }) }, 'revalidate'] },
+        // The answer undone is named, so a second undo sent at the same time is refused instead of undoing one more.
+        input: ({ context }) => ({ diagnosisId: context.diagnosisId, last: context.saved.at(-1)?.clientId }),
+        onDone: { target: 'idle', actions: { type: 'applyView', params: ({ event }) => ({ view: event.output }) } },
         onError: { target: 'idle', actions: 'setUndoError' },
       },
     },
@@ -431,6 +469,11 @@ export const wizardMachine = setup({
         onError: { target: 'reloadWaiting', actions: 'recordFailure' },
       },
     },
+    // No retries until the user says they have signed in again (in another tab, or after a reload).
+    signedOut: {
+      tags: ['busy', 'signed-out'],
+      on: { 'retry.now': { target: 'saving', actions: assign({ notice: null }) } },
+    },
     reloadWaiting: {
       tags: ['busy', 'retrying'],
       after: { retryDelay: 'reloading' },
@@ -442,10 +485,11 @@ export const wizardMachine = setup({
 export type WizardMachine = typeof wizardMachine;
 
 /** What the small sync indicator says. */
-export function syncStatus(context: Pick<WizardContext, 'pending' | 'online' | 'lastError'>, busy: boolean) {
+export function syncStatus(context: Pick<WizardContext, 'pending' | 'online' | 'lastError'>, busy: boolean, signedOut = false) {
   const n = context.pending.length;
   const waiting = `${n} ${n === 1 ? 'answer' : 'answers'} waiting`;
   if (n === 0) return { kind: busy ? ('saving' as const) : ('saved' as const), text: busy ? 'Saving…' : 'Saved' };
+  if (signedOut) return { kind: 'signed-out' as const, text: `Not saved — sign in again; ${waiting} on this device` };
   if (!context.online) return { kind: 'offline' as const, text: `Offline — ${waiting}` };
   if (context.lastError) return { kind: 'retrying' as const, text: `Not saved yet — ${waiting}, retrying` };
   return { kind: 'saving' as const, text: n > 1 ? `Saving… (${waiting})` : 'Saving…' };

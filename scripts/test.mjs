@@ -1,6 +1,7 @@
 // `npm test`: the whole suite against a throwaway PostgreSQL cluster that this script creates and
 // removes. 1) unit, component and database tests (vitest); 2) the app is built and served on a
 // free port, and the HTTP API and browser (playwright-core + Debian's chromium) tests run against it.
+// Before both: typecheck, ESLint and Prettier (each counted as one check; skipped with a flag).
 // Flags: --unit-only (stage 1), --e2e-only (stage 2). Extra arguments after `--` go to vitest.
 import { mkdtempSync, readFileSync, rmSync, existsSync } from 'node:fs';
 import os from 'node:os';
@@ -77,6 +78,20 @@ async function main() {
       NEXT_DIST_DIR: process.env.NEXT_DIST_DIR ?? '.next-test',
       CHROMIUM_PATH: chromium ?? '',
     };
+    if (!unitOnly && !e2eOnly) {
+      // The habits first: they take seconds, and a red one needs no database to show.
+      for (const script of ['typecheck', 'lint', 'format:check']) {
+        log(`npm run ${script}…`);
+        try {
+          run('npm', ['run', '--silent', script]);
+          totals.passed += 1;
+        } catch {
+          console.error(`npm run ${script} failed: see above.`);
+          totals.failed += 1;
+          ok = false;
+        }
+      }
+    }
     log('Migrating and seeding the throwaway database…');
     knex(['migrate:latest'], env);
     knex(['seed:run'], env);

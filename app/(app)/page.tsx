@@ -3,10 +3,11 @@ import Link from 'next/link';
 import { CallStatusBadge } from '@/components/calls/call-status';
 import { formatDate } from '@/components/calls/format';
 import { FormMessage } from '@/components/ui/field';
-import { FIELD_ROLES, ROLE_LABELS, type Role } from '@/lib/roles';
+import { may } from '@/lib/policy';
+import { ROLE_LABELS, type Role } from '@/lib/roles';
 import { findCalls } from '@/lib/server/calls';
 import { requirePageUser, type CurrentUser } from '@/lib/server/guard';
-import { viewerOf } from '@/lib/server/viewer';
+import { authorize } from '@/lib/server/operation';
 
 export const metadata: Metadata = { title: 'Home' };
 
@@ -75,7 +76,7 @@ export default async function HomePage({ searchParams }: { searchParams: Promise
         <h1 className="page-title">Good to see you, {user.name.split(' ')[0]}</h1>
         <p className="text-muted">{user.companyName}</p>
       </div>
-      {FIELD_ROLES.includes(user.role) && <OpenCalls user={user} />}
+      {may(user.role, 'calls.list') && <OpenCalls user={user} />}
       <ul className="grid gap-4 sm:grid-cols-2">
         {TILES[user.role].map((tile) => (
           <li key={tile.href + tile.title}>
@@ -97,8 +98,9 @@ export default async function HomePage({ searchParams }: { searchParams: Promise
 
 /** The calls still to work: one's own for the field, the whole company's count for leads and admins. */
 async function OpenCalls({ user }: { user: CurrentUser }) {
-  const supervisor = user.role === 'lead' || user.role === 'admin';
-  const calls = (await findCalls({ viewer: viewerOf(user), technician: supervisor ? undefined : 'me' })).filter(
+  const { scope } = await authorize('calls.list');
+  const supervisor = scope.reach === 'company';
+  const calls = (await findCalls({ scope, technician: supervisor ? undefined : 'me' })).filter(
     (c) => c.status !== 'closed' && c.status !== 'referred',
   );
   const unassigned = calls.filter((c) => !c.technicianId).length;

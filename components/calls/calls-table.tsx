@@ -93,6 +93,8 @@ export function CallsTable({ initialCalls, initialFilter = {}, technicianChoice,
     [],
   );
 
+  // TanStack Table v8 hands back a stateful table object by design; the app does not run React Compiler.
+  // eslint-disable-next-line react-hooks/incompatible-library
   const table = useReactTable({
     data: data ?? [],
     columns,

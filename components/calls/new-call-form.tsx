@@ -4,7 +4,7 @@ import { zodResolver } from '@hookform/resolvers/zod';
 import clsx from 'clsx';
 import { useRouter } from 'next/navigation';
 import { useId, useMemo, useState } from 'react';
-import { useForm, type FieldValues, type Path, type UseFormSetError } from 'react-hook-form';
+import { useForm, useWatch, type FieldValues, type Path, type UseFormSetError } from 'react-hook-form';
 import type { z } from 'zod';
 import { FUEL_LABELS, IGNITION_LABELS, SUPPLY_LABELS } from '@/components/calls/format';
 import { SegmentOption, Segmented } from '@/components/calls/segmented';
@@ -62,11 +62,11 @@ export function NewCallForm({ sites: initialSites, assignees, me, preselectUnitI
   const site = sites.find((s) => s.id === siteId) ?? null;
   const dispatcher = assignees.length > 0;
 
-  const { register, handleSubmit, formState, setError, setValue, watch, clearErrors } = useForm<CallIn, unknown, CallOut>({
+  const { register, handleSubmit, formState, setError, setValue, control, clearErrors } = useForm<CallIn, unknown, CallOut>({
     resolver: zodResolver(callSchema),
     defaultValues: { unitId: preselectedSite ? preselectUnitId : '', complaint: '', technicianId: dispatcher ? '' : me.id },
   });
-  const unitId = watch('unitId');
+  const unitId = useWatch({ control, name: 'unitId' });
 
   async function onSubmit(values: CallOut) {
     setMessage(null);

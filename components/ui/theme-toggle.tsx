@@ -1,15 +1,20 @@
 'use client';
 
-import { useEffect, useState } from 'react';
+import { useSyncExternalStore } from 'react';
 
 type Theme = 'light' | 'dark';
 
-export function ThemeToggle() {
-  const [theme, setTheme] = useState<Theme | null>(null);
+// The theme lives on <html> (set before the first paint by the root layout's script); the button
+// reads it from there and follows any change to it.
+function subscribe(onChange: () => void) {
+  const observer = new MutationObserver(onChange);
+  observer.observe(document.documentElement, { attributes: true, attributeFilter: ['class'] });
+  return () => observer.disconnect();
+}
+const currentTheme = (): Theme => (document.documentElement.classList.contains('dark') ? 'dark' : 'light');
 
-  useEffect(() => {
-    setTheme(document.documentElement.classList.contains('dark') ? 'dark' : 'light');
-  }, []);
+export function ThemeToggle() {
+  const theme = useSyncExternalStore<Theme | null>(subscribe, currentTheme, () => null);
 
   function toggle() {
     const next: Theme = theme === 'dark' ? 'light' : 'dark';
@@ -19,7 +24,6 @@ export function ThemeToggle() {
     } catch {
       /* private mode: the choice lasts for this page only */
     }
-    setTheme(next);
   }
 
   return (

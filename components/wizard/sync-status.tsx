@@ -6,7 +6,7 @@ export function SyncStatus({
   text,
   onRetry,
 }: {
-  kind: 'saved' | 'saving' | 'offline' | 'retrying';
+  kind: 'saved' | 'saving' | 'offline' | 'retrying' | 'signed-out';
   text: string;
   onRetry?: () => void;
 }) {
@@ -20,9 +20,15 @@ export function SyncStatus({
         <span aria-hidden>{kind === 'saved' ? '✓' : kind === 'saving' ? '↻' : '⨯'}</span>
         {text}
       </p>
-      {onRetry && (kind === 'offline' || kind === 'retrying') && (
-        <button type="button" className="btn-quiet min-h-0 px-2 py-1 text-sm underline" onClick={onRetry}>
-          Retry now
+      {kind === 'signed-out' && (
+        // A new tab, so this page and the answers it holds stay as they are.
+        <a href="/sign-in" target="_blank" rel="noopener" className="btn-quiet min-h-touch px-3 text-sm underline">
+          Sign in
+        </a>
+      )}
+      {onRetry && (kind === 'offline' || kind === 'retrying' || kind === 'signed-out') && (
+        <button type="button" className="btn-quiet min-h-touch px-3 text-sm underline" onClick={onRetry}>
+          {kind === 'signed-out' ? 'Send now' : 'Retry now'}
         </button>
       )}
     </div>

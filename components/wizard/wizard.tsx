@@ -6,7 +6,8 @@ import { useEffect, useMemo, useRef, useState } from 'react';
 import { fromPromise } from 'xstate';
 import type { ActionStep, FindingStep, InspectStep, MeasureStep, TreeVersion } from '@/lib/trees/schema';
 import { displayUnitFor, type UnitSystem } from '@/lib/units';
-import { useDiagnosis, type DiagnosisViewJson } from '@/lib/swr/use-diagnosis';
+import { fetcher } from '@/lib/swr/fetcher';
+import type { ActionResult, AnswerResult, DiagnosisViewOut } from '@/lib/validations/api';
 import { getStep } from '@/machines/diagnosis-machine';
 import {
   pathItems,
@@ -29,15 +30,47 @@ import { EnergyBadge, TestPoints, WhyThisStep } from '@/components/wizard/step-p
 import { SyncStatus } from '@/components/wizard/sync-status';
 import { UndoLast } from '@/components/wizard/undo-last';
 
-type ActionResult<T> = { ok: true; data: T } | { ok: false; message: string; fieldErrors?: Record<string, string[]> };
-
 /** The server actions, passed in by the page (components do not import from app/). */
 export interface WizardActions {
-  submitAnswer: (input: {
-    diagnosisId: string;
-    answer: { clientId: string; stepId: string; text?: string; unit?: string; choice?: string; confirmed?: boolean };
-  }) => Promise<ActionResult<{ type: 'saved'; result: { answer: ServerAnswer } } | { type: 'refused' | 'conflict'; message: string }>>;
-  undoAnswer: (input: { diagnosisId: string }) => Promise<ActionResult<WizardView>>;
+  submitAnswer: (input: unknown) => Promise<ActionResult<AnswerResult>>;
+  undoAnswer: (input: unknown) => Promise<ActionResult<DiagnosisViewOut>>;
+}
+
+/** A save that has not answered in this time is given up and retried (the server action has no timeout of its own). */
+const SAVE_TIMEOUT_MS = 20_000;
+
+function withTimeout<T>(work: Promise<T>, ms: number): Promise<T> {
+  return new Promise((resolve, reject) => {
+    const timer = setTimeout(() => reject(new Error('The server did not answer')), ms);
+    work.then(
+      (v) => {
+        clearTimeout(timer);
+        resolve(v);
+      },
+      (e) => {
+        clearTimeout(timer);
+        reject(e);
+      },
+    );
+  });
+}
+
+/** What a refused save means for the queue: the answer itself (roll back), the diagnosis moved (reload), the session (hold). */
+export function outcomeOf(result: ActionResult<AnswerResult>): SaveOutcome {
+  if (result.ok) return { type: 'saved', answer: result.data.answer as ServerAnswer, diagnosis: result.data.diagnosis };
+  switch (result.code) {
+    case 'bad_request':
+    case 'not_found':
+      return { type: 'refused', message: result.message };
+    case 'conflict':
+      return { type: 'conflict', message: result.message };
+    case 'unauthorized':
+    case 'forbidden':
+      return { type: 'signed-out', message: result.message };
+    default:
+      // Busy, too many requests, a failure on our side: worth another try after the backoff.
+      throw new Error(result.message);
+  }
 }
 
 export interface WizardProps {
@@ -45,7 +78,7 @@ export interface WizardProps {
   diagnosisId: string;
   callId: string;
   version: TreeVersion;
-  initialView: DiagnosisViewJson;
+  initialView: DiagnosisViewOut;
   displayUnits: UnitSystem;
   transformerVa: number | null;
 }
@@ -81,9 +114,8 @@ function answerPayload(a: PendingAnswer) {
 }
 
 export function Wizard({ actions, diagnosisId, callId, version, initialView, displayUnits, transformerVa }: WizardProps) {
-  const { data: view, mutate } = useDiagnosis(diagnosisId, initialView);
-  const mutateRef = useRef(mutate);
-  mutateRef.current = mutate;
+  // The server's view as last seen: the page's, then what an undo or a reload answered.
+  const [view, setView] = useState(initialView);
 
   const machine = useMemo(
     () =>
@@ -91,32 +123,30 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
         actors: {
           saveAnswer: fromPromise<SaveOutcome, { diagnosisId: string; answer: PendingAnswer }>(async ({ input }) => {
             if (typeof navigator !== 'undefined' && navigator.onLine === false) throw new Error('The tablet is offline');
-            const result = await actions.submitAnswer({ diagnosisId: input.diagnosisId, answer: answerPayload(input.answer) });
-            if (result.ok) return result.data.type === 'saved' ? { type: 'saved', answer: result.data.result.answer } : result.data;
-            // A refusal with field errors is about the answer itself; anything else is worth another try.
-            if (result.fieldErrors) return { type: 'refused', message: result.message };
-            throw new Error(result.message);
+            const result = await withTimeout(
+              actions.submitAnswer({ diagnosisId: input.diagnosisId, answer: answerPayload(input.answer) }),
+              SAVE_TIMEOUT_MS,
+            );
+            return outcomeOf(result);
           }),
-          undoAnswer: fromPromise<WizardView, { diagnosisId: string }>(async ({ input }) => {
-            const result = await actions.undoAnswer({ diagnosisId: input.diagnosisId });
+          undoAnswer: fromPromise<WizardView, { diagnosisId: string; last?: string }>(async ({ input }) => {
+            const result = await withTimeout(actions.undoAnswer({ diagnosisId: input.diagnosisId, last: input.last }), SAVE_TIMEOUT_MS);
             if (!result.ok) throw new Error(result.message);
-            return result.data;
+            setView(result.data);
+            return result.data as WizardView;
           }),
-          loadView: fromPromise<WizardView, { diagnosisId: string }>(async () => {
-            const fresh = await mutateRef.current();
-            if (!fresh) throw new Error('The diagnosis could not be loaded');
-            return fresh;
+          loadView: fromPromise<WizardView, { diagnosisId: string }>(async ({ input }) => {
+            const fresh = await withTimeout(fetcher<DiagnosisViewOut>(`/api/diagnoses/${input.diagnosisId}`), SAVE_TIMEOUT_MS);
+            setView(fresh);
+            return fresh as WizardView;
           }),
         },
         actions: {
           persistQueue: (_, params) => writeQueue(diagnosisId, params.pending),
-          revalidate: () => {
-            void mutateRef.current();
-          },
         },
       }),
     // The page's actions are stable server references.
-    [diagnosisId],
+    [actions, diagnosisId],
   );
 
   const [snapshot, send] = useMachine(machine, { input: { diagnosisId, version, view: initialView } });
@@ -136,12 +166,8 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
     };
   }, [diagnosisId, send]);
 
-  useEffect(() => {
-    if (view) send({ type: 'view.loaded', view });
-  }, [view, send]);
-
   const busy = !snapshot.hasTag('synced');
-  const status = syncStatus(ctx, busy);
+  const status = syncStatus(ctx, busy, snapshot.hasTag('signed-out'));
   const items = pathItems(ctx);
   const step = getStep(version, ctx.stepId);
   const refusal = ctx.refusal && ctx.refusal.stepId === ctx.stepId ? ctx.refusal : null;
@@ -169,7 +195,7 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
       />
     </div>
   );
-  const serverAgrees = view && ctx.pending.length === 0 && view.finding?.id === ctx.findingId;
+  const check = ctx.pending.length === 0 && ctx.findingCheck?.findingId === ctx.findingId ? ctx.findingCheck : null;
 
   return (
     <div className="mx-auto max-w-3xl pb-28">
@@ -206,7 +232,7 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
           finding={finding}
           version={version}
           callId={callId}
-          contradictions={serverAgrees ? view.contradictions : null}
+          contradictions={check ? check.contradictions : null}
           needsSignOff={view?.startedBy.role === 'apprentice' && !view.signedOff}
           signedOff={view?.signedOff ?? null}
           footer={footer}

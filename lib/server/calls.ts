@@ -1,115 +1,127 @@
 import 'server-only';
-import { closeCall, createCall, getCall, listAssignees, listCalls, recordRepair, type Viewer } from '@/db/calls';
+import { CLOSED_STATUSES, closeCall, createCall, getCall, listAssignees, listCalls, recordRepair } from '@/db/calls';
 import { getCompany } from '@/db/companies';
-import { getDiagnosis, listAnswersForDiagnoses, listDiagnosesForCall, signOffDiagnosis } from '@/db/diagnoses';
+import { listAnswersForDiagnoses, listDiagnosesForCall } from '@/db/diagnoses';
+import { db } from '@/db/knex';
 import { getSite, listSites, type Site } from '@/db/sites';
 import { getTreeVersion, listTrees, type TreeVersionRecord } from '@/db/trees';
 import { getUnit, listUnits, listUnitReadings, type Unit } from '@/db/units';
+import { AppError } from '@/lib/errors';
+import type { Scope } from '@/lib/policy';
 import { getDiagnosisView } from '@/lib/server/diagnoses';
 import { LOCK_OUT_PREFIX, RE_ENERGIZE_PREFIX } from '@/lib/trees/graph';
 import type { Caution, FindingStep } from '@/lib/trees/schema';
-import { getStep } from '@/machines/diagnosis-machine';
-import { AppError } from '@/lib/errors';
 import { parseReading } from '@/lib/units';
 import type { CallInput, CallStatus, RepairInput } from '@/lib/validations/field';
+import { getStep } from '@/machines/diagnosis-machine';
 
-// Service calls: shared by the route handlers and the server actions.
+// Service calls: what the call operations and the calls, units and report pages share. Every
+// function takes the scope the policy gives the operation (lib/policy.ts), never the user's role.
 
-const FIELD = new Set(['apprentice', 'technician', 'lead', 'admin']);
+const isClosed = (status: CallStatus) => CLOSED_STATUSES.includes(status);
 
-export function assertField(viewer: Viewer) {
-  if (!FIELD.has(viewer.role)) throw new AppError('forbidden', 'Service calls are for field roles; trainers work with practice scenarios.');
-}
-
-export async function openCall({ viewer, input }: { viewer: Viewer; input: CallInput }) {
-  assertField(viewer);
-  await getUnit({ companyId: viewer.companyId, id: input.unitId });
-  let technicianId = input.technicianId ?? null;
-  if (viewer.role === 'technician' || viewer.role === 'apprentice') {
-    // Field users open calls for themselves; leads and admins dispatch to anyone.
-    if (technicianId && technicianId !== viewer.id) {
-      throw new AppError('forbidden', 'Only a lead or an admin can assign a call to someone else.', {
-        fieldErrors: { technicianId: ['Leave it on yourself.'] },
-      });
+/**
+ * Opens a call. A scope that reaches the whole company (leads, admins) dispatches to any field user;
+ * anyone else opens calls for themselves.
+ */
+export async function openCall({ scope, input }: { scope: Scope; input: CallInput }) {
+  return db.transaction(async (trx) => {
+    await getUnit({ companyId: scope.companyId, id: input.unitId }, trx);
+    let technicianId = input.technicianId ?? null;
+    if (scope.reach !== 'company') {
+      if (technicianId && technicianId !== scope.userId) {
+        throw new AppError('forbidden', 'Only a lead or an admin can assign a call to someone else.', {
+          fieldErrors: { technicianId: ['Leave it on yourself.'] },
+        });
+      }
+      technicianId = scope.userId;
+    } else if (technicianId) {
+      const assignees = await listAssignees({ companyId: scope.companyId }, trx);
+      if (!assignees.some((a) => a.id === technicianId)) {
+        throw new AppError('bad_request', 'That technician is not an active field user of your company.', {
+          fieldErrors: { technicianId: ['Choose someone from the list.'] },
+        });
+      }
     }
-    technicianId = viewer.id;
-  } else if (technicianId) {
-    const assignees = await listAssignees({ companyId: viewer.companyId });
-    if (!assignees.some((a: { id: string }) => a.id === technicianId)) {
-      throw new AppError('bad_request', 'That technician is not an active field user of your company.', {
-        fieldErrors: { technicianId: ['Choose someone from the list.'] },
-      });
-    }
-  }
-  return createCall({ viewer, unitId: input.unitId, complaint: input.complaint, technicianId });
+    const id = await createCall(
+      { companyId: scope.companyId, unitId: input.unitId, complaint: input.complaint, technicianId, createdBy: scope.userId },
+      trx,
+    );
+    return getCall({ scope, id }, trx);
+  });
 }
 
-export async function findCalls({ viewer, status, technician }: { viewer: Viewer; status?: CallStatus; technician?: string }) {
-  if (viewer.role === 'trainer') return [];
-  return listCalls({ viewer, status, technicianId: technician === 'me' ? viewer.id : technician });
+export async function findCalls({ scope, status, technician }: { scope: Scope; status?: CallStatus; technician?: string }) {
+  return listCalls({ scope, status, technicianId: technician === 'me' ? scope.userId : technician });
 }
 
-export async function getCallDetail({ viewer, id }: { viewer: Viewer; id: string }) {
-  assertFieldOr404(viewer);
-  const call = await getCall({ viewer, id });
-  const unit = await getUnit({ companyId: viewer.companyId, id: call.unitId });
-  const diagnoses = await listDiagnosesForCall({ companyId: viewer.companyId, callId: id });
+export async function getCallDetail({ scope, id }: { scope: Scope; id: string }) {
+  const call = await getCall({ scope, id });
+  const [unit, diagnoses] = await Promise.all([
+    getUnit({ companyId: scope.companyId, id: call.unitId }),
+    listDiagnosesForCall({ companyId: scope.companyId, callId: id }),
+  ]);
   return { call, unit, diagnoses };
 }
 
-function assertFieldOr404(viewer: Viewer) {
-  if (!FIELD.has(viewer.role)) throw new AppError('not_found', 'That service call was not found.');
-}
-
-export async function saveRepair({ viewer, id, input }: { viewer: Viewer; id: string; input: RepairInput }) {
-  assertFieldOr404(viewer);
+export async function saveRepair({ scope, id, input }: { scope: Scope; id: string; input: RepairInput }) {
   let flameSignal: { text: string; value: number } | null = null;
   if (input.flameSignal) {
     const parsed = parseReading('udc', input.flameSignal, 'µA');
     if (!parsed.ok) throw new AppError('bad_request', parsed.message, { fieldErrors: { flameSignal: [parsed.message] } });
     flameSignal = { text: input.flameSignal, value: parsed.value };
   }
-  return recordRepair({
-    viewer,
-    id,
-    repairNotes: input.repairNotes,
-    verification: { cycles: input.cycles, flameSignal, checks: input.checks, notes: input.notes },
+  return db.transaction(async (trx) => {
+    const call = await getCall({ scope, id, lock: 'update' }, trx);
+    const verification = { cycles: input.cycles, flameSignal, checks: input.checks, notes: input.notes };
+    if (
+      isClosed(call.status) ||
+      !(await recordRepair({ companyId: scope.companyId, id, repairNotes: input.repairNotes, verification }, trx))
+    ) {
+      throw new AppError('conflict', 'This call is closed; its record cannot change.');
+    }
+    return getCall({ scope, id }, trx);
   });
 }
 
-export async function finishCall({ viewer, id, outcome }: { viewer: Viewer; id: string; outcome: 'closed' | 'referred' }) {
-  assertFieldOr404(viewer);
-  const call = await getCall({ viewer, id });
-  if (call.status === 'closed' || call.status === 'referred') throw new AppError('conflict', 'This call is already closed.');
-  if (viewer.role === 'apprentice') throw new AppError('forbidden', 'A technician closes the call.');
-  const diagnoses = await listDiagnosesForCall({ companyId: viewer.companyId, callId: id });
-  if (outcome === 'closed') {
-    if (diagnoses.some((d) => d.status === 'in_progress')) {
-      throw new AppError('conflict', 'A diagnosis on this call is still in progress: finish it, or refer the call.');
+/** Closes or refers a call, checked and changed under the call's row lock; of several at once, one wins. */
+export async function finishCall({
+  scope,
+  userId,
+  id,
+  outcome,
+}: {
+  scope: Scope;
+  userId: string;
+  id: string;
+  outcome: 'closed' | 'referred';
+}) {
+  return db.transaction(async (trx) => {
+    const call = await getCall({ scope, id, lock: 'update' }, trx);
+    if (isClosed(call.status)) throw new AppError('conflict', 'This call is already closed.');
+    if (outcome === 'closed') {
+      const diagnoses = await listDiagnosesForCall({ companyId: scope.companyId, callId: id }, trx);
+      if (diagnoses.some((d) => d.status === 'in_progress')) {
+        throw new AppError('conflict', 'A diagnosis on this call is still in progress: finish it, or refer the call.');
+      }
+      if (diagnoses.some((d) => d.status === 'found' && d.userRole === 'apprentice' && !d.signedOffBy)) {
+        throw new AppError('conflict', "An apprentice's finding needs a technician's sign-off before the call can be closed.");
+      }
+      if (!call.repairNotes) throw new AppError('conflict', 'Record the repair and its verification before closing the call.');
     }
-    const unsigned = diagnoses.filter((d) => d.status === 'found' && d.userRole === 'apprentice' && !d.signedOffBy);
-    if (unsigned.length)
-      throw new AppError('conflict', "An apprentice's finding needs a technician's sign-off before the call can be closed.");
-    if (!call.repairNotes) throw new AppError('conflict', 'Record the repair and its verification before closing the call.');
-  }
-  return closeCall({ viewer, id, outcome });
+    if (!(await closeCall({ companyId: scope.companyId, id, outcome, closedBy: userId }, trx))) {
+      throw new AppError('conflict', 'This call is already closed.');
+    }
+    return getCall({ scope, id }, trx);
+  });
 }
 
-export async function signOff({ viewer, diagnosisId }: { viewer: Viewer; diagnosisId: string }) {
-  if (!['technician', 'lead', 'admin'].includes(viewer.role))
-    throw new AppError('forbidden', 'A technician, lead or admin signs off a finding.');
-  const diagnosis = await getDiagnosis({ companyId: viewer.companyId, id: diagnosisId });
-  await getCall({ viewer, id: diagnosis.callId });
-  if (diagnosis.status !== 'found') throw new AppError('conflict', 'Only a diagnosis that reached its finding can be signed off.');
-  if (diagnosis.userId === viewer.id) throw new AppError('forbidden', 'Someone else signs off your own finding.');
-  await signOffDiagnosis({ companyId: viewer.companyId, id: diagnosisId, userId: viewer.id });
-}
-
-export async function getUnitWithHistory({ viewer, id }: { viewer: Viewer; id: string }) {
-  assertFieldOr404(viewer);
-  const unit = await getUnit({ companyId: viewer.companyId, id });
-  const readings = await listUnitReadings({ companyId: viewer.companyId, unitId: id });
-  const calls = await listCalls({ viewer: { ...viewer, role: 'admin' }, unitId: id });
+export async function getUnitWithHistory({ scope, id }: { scope: Scope; id: string }) {
+  const unit = await getUnit({ companyId: scope.companyId, id });
+  const [readings, calls] = await Promise.all([
+    listUnitReadings({ companyId: scope.companyId, unitId: id }),
+    listCalls({ scope, unitId: id }),
+  ]);
   return { unit, readings, calls };
 }
 
@@ -118,27 +130,22 @@ export async function getUnitWithHistory({ viewer, id }: { viewer: Viewer; id: s
 const DEFAULT_TREE_SLUG = 'no-heat-dsi';
 
 /** The published version a new diagnosis runs: the company's default no-heat tree, else the first published one. */
-export async function getDefaultTreeVersion({
-  viewer,
-}: {
-  viewer: Viewer;
-}): Promise<{ id: string; title: string; version: number } | null> {
-  const trees = await listTrees({ companyId: viewer.companyId });
+export async function getDefaultTreeVersion({ scope }: { scope: Scope }): Promise<{ id: string; title: string; version: number } | null> {
+  const trees = await listTrees({ companyId: scope.companyId });
   const tree = trees.find((t) => t.slug === DEFAULT_TREE_SLUG && t.published) ?? trees.find((t) => t.published);
   return tree?.published ? { id: tree.published.id, title: tree.title, version: tree.published.version } : null;
 }
 
 /** Sites with their units, for the new-call picker. */
-export async function listSitesWithUnits({ viewer }: { viewer: Viewer }): Promise<(Site & { units: Unit[] })[]> {
-  assertField(viewer);
-  const [sites, units] = await Promise.all([listSites({ companyId: viewer.companyId }), listUnits({ companyId: viewer.companyId })]);
+export async function listSitesWithUnits({ scope }: { scope: Scope }): Promise<(Site & { units: Unit[] })[]> {
+  const [sites, units] = await Promise.all([listSites({ companyId: scope.companyId }), listUnits({ companyId: scope.companyId })]);
   return sites.map((s) => ({ ...s, units: units.filter((u) => u.siteId === s.id) }));
 }
 
-/** Active field users a lead or admin may assign a call to; empty for everyone else. */
-export async function listCallAssignees({ viewer }: { viewer: Viewer }): Promise<{ id: string; name: string; role: string }[]> {
-  if (viewer.role !== 'lead' && viewer.role !== 'admin') return [];
-  return listAssignees({ companyId: viewer.companyId });
+/** Active field users a scope reaching the whole company may assign a call to; empty for everyone else. */
+export async function listCallAssignees({ scope }: { scope: Scope }): Promise<{ id: string; name: string; role: string }[]> {
+  if (scope.reach !== 'company') return [];
+  return listAssignees({ companyId: scope.companyId });
 }
 
 async function versionsOf(companyId: string, ids: string[]): Promise<Map<string, TreeVersionRecord>> {
@@ -162,16 +169,16 @@ export interface CallReading {
   at: Date;
 }
 
-/** Everything the call page shows: the call, its unit and site, diagnoses with their findings, readings, and what the viewer may do. */
-export async function getCallPage({ viewer, id }: { viewer: Viewer; id: string }) {
-  const { call, unit } = await getCallDetail({ viewer, id });
-  const site = await getSite({ companyId: viewer.companyId, id: unit.siteId });
-  const records = await listDiagnosesForCall({ companyId: viewer.companyId, callId: id });
+/** Everything the call page shows: the call, its unit and site, diagnoses with their findings, readings, and what the user may do. */
+export async function getCallPage({ scope, id }: { scope: Scope; id: string }) {
+  const { call, unit } = await getCallDetail({ scope, id });
+  const site = await getSite({ companyId: scope.companyId, id: unit.siteId });
+  const records = await listDiagnosesForCall({ companyId: scope.companyId, callId: id });
   const versions = await versionsOf(
-    viewer.companyId,
+    scope.companyId,
     records.map((d) => d.treeVersionId),
   );
-  const answers = await listAnswersForDiagnoses({ companyId: viewer.companyId, diagnosisIds: records.map((d) => d.id) });
+  const answers = await listAnswersForDiagnoses({ companyId: scope.companyId, diagnosisIds: records.map((d) => d.id) });
   const versionOfDiagnosis = new Map(records.map((d) => [d.id, versions.get(d.treeVersionId)!]));
 
   const diagnoses = records.map((d) => {
@@ -217,20 +224,20 @@ export async function getCallPage({ viewer, id }: { viewer: Viewer; id: string }
     });
 
   const closed = call.status === 'closed' || call.status === 'referred';
-  const defaultTree = closed ? null : await getDefaultTreeVersion({ viewer });
+  const defaultTree = closed ? null : await getDefaultTreeVersion({ scope });
   return { call, unit, site, diagnoses, readings, defaultTree, closed };
 }
 export type CallPage = Awaited<ReturnType<typeof getCallPage>>;
 
 /** The service report: the call with every diagnosis's path, findings, repair, verification and the cautions observed. */
-export async function getCallReport({ viewer, id }: { viewer: Viewer; id: string }) {
-  const { call, unit, site, diagnoses } = await getCallPage({ viewer, id });
-  const company = await getCompany({ id: viewer.companyId });
+export async function getCallReport({ scope, id }: { scope: Scope; id: string }) {
+  const { call, unit, site, diagnoses } = await getCallPage({ scope, id });
+  const company = await getCompany({ id: scope.companyId });
   const cautions = new Map<string, Caution>();
   const paths = [];
   for (const d of diagnoses) {
-    const view = await getDiagnosisView({ viewer, id: d.id });
-    const record = await getTreeVersion({ companyId: viewer.companyId, id: view.treeVersionId });
+    const view = await getDiagnosisView({ scope, id: d.id });
+    const record = await getTreeVersion({ companyId: scope.companyId, id: view.treeVersionId });
     const version = { id: record.id, version: record.version, graph: record.graph };
     const steps = view.path.map((a) => {
       const step = getStep(version, a.stepId);
@@ -253,12 +260,12 @@ export async function getCallReport({ viewer, id }: { viewer: Viewer; id: string
 export type CallReport = Awaited<ReturnType<typeof getCallReport>>;
 
 /** Calls of a unit with their findings, readings, and the flame signal across visits for the plot. */
-export async function getUnitPage({ viewer, id }: { viewer: Viewer; id: string }) {
-  const { unit, readings, calls } = await getUnitWithHistory({ viewer, id });
-  const site = await getSite({ companyId: viewer.companyId, id: unit.siteId });
-  const diagnoses = (await Promise.all(calls.map((c) => listDiagnosesForCall({ companyId: viewer.companyId, callId: c.id })))).flat();
+export async function getUnitPage({ scope, id }: { scope: Scope; id: string }) {
+  const { unit, readings, calls } = await getUnitWithHistory({ scope, id });
+  const site = await getSite({ companyId: scope.companyId, id: unit.siteId });
+  const diagnoses = (await Promise.all(calls.map((c) => listDiagnosesForCall({ companyId: scope.companyId, callId: c.id })))).flat();
   const versions = await versionsOf(
-    viewer.companyId,
+    scope.companyId,
     diagnoses.map((d) => d.treeVersionId),
   );
   const findingsByCall = new Map<string, string[]>();
@@ -281,17 +288,17 @@ export async function getUnitPage({ viewer, id }: { viewer: Viewer; id: string }
     afterRepair: calls
       .filter((c) => c.verification?.flameSignal)
       .map((c) => ({ at: c.closedAt ?? c.openedAt, value: c.verification!.flameSignal!.value, callId: c.id })),
-    bands: await flameBands({ viewer }),
+    bands: await flameBands({ scope }),
   };
   return { unit, site, visits, readings, flame };
 }
 export type UnitPage = Awaited<ReturnType<typeof getUnitPage>>;
 
 /** The flame-signal bands of the default tree, for the plot's reference areas. */
-async function flameBands({ viewer }: { viewer: Viewer }) {
-  const tree = await getDefaultTreeVersion({ viewer });
+async function flameBands({ scope }: { scope: Scope }) {
+  const tree = await getDefaultTreeVersion({ scope });
   if (!tree) return [];
-  const record = await getTreeVersion({ companyId: viewer.companyId, id: tree.id });
+  const record = await getTreeVersion({ companyId: scope.companyId, id: tree.id });
   const step = record.graph.steps.find((s) => s.kind === 'measure' && s.quantity === 'udc');
   return step?.kind === 'measure'
     ? step.bands.map((b) => ({ from: b.from ?? null, to: b.to ?? null, label: b.label, verdict: b.verdict }))
@@ -299,10 +306,9 @@ async function flameBands({ viewer }: { viewer: Viewer }) {
 }
 
 /** Units of the company grouped by site, with the date of each unit's last call. */
-export async function listUnitsBySite({ viewer }: { viewer: Viewer }) {
-  assertFieldOr404(viewer);
-  const sites = await listSitesWithUnits({ viewer });
-  const calls = await listCalls({ viewer: { ...viewer, role: 'admin' } });
+export async function listUnitsBySite({ scope }: { scope: Scope }) {
+  const sites = await listSitesWithUnits({ scope });
+  const calls = await listCalls({ scope });
   const last = new Map<string, Date>();
   for (const c of calls) if (!last.has(c.unitId)) last.set(c.unitId, c.openedAt);
   return sites.map((s) => ({ ...s, units: s.units.map((u) => ({ ...u, lastCallAt: last.get(u.id) ?? null })) }));

@@ -3,10 +3,11 @@ import { getIronSession, type SessionOptions } from 'iron-session';
 import { cookies } from 'next/headers';
 
 export interface SessionData {
-  userId?: string;
-  /** Must equal users.session_version, or the session was revoked. */
-  version?: number;
+  /** The `sessions` row this cookie stands for; the server checks it on every request. */
+  sid?: string;
 }
+
+export const SESSION_TTL_SECONDS = 60 * 60 * 12;
 
 function secret(): string {
   const value = process.env.SESSION_SECRET;
@@ -27,7 +28,7 @@ export function sessionOptions(): SessionOptions {
   return {
     password: secret(),
     cookieName: 'pg_session',
-    ttl: 60 * 60 * 12,
+    ttl: SESSION_TTL_SECONDS,
     cookieOptions: { httpOnly: true, sameSite: 'lax', secure: secureCookie(), path: '/' },
   };
 }

@@ -1,7 +1,7 @@
 // @vitest-environment node
 import { randomUUID } from 'node:crypto';
 import { db } from '@/db/knex';
-import { createUser, getSessionUser, getUser, getUserForSignIn, listUsers, updateUser } from '@/db/users';
+import { createUser, getUser, getUserForSignIn, listUsers, updateUser } from '@/db/users';
 import { AppError } from '@/lib/errors';
 
 // Two companies made for this file, so the seeded demo data is neither read nor changed; deleting
@@ -124,19 +124,12 @@ describe('getUser', () => {
   });
 });
 
-describe('getUserForSignIn and getSessionUser', () => {
+describe('getUserForSignIn', () => {
   it('find a user by e-mail in any case, with the hash and company name', async () => {
     const user = await newUser(companyB, 'signin');
     const found = await getUserForSignIn({ email: user.email.toUpperCase() });
     expect(found).toMatchObject({ id: user.id, companyName: 'Bravo', passwordHash: 'not-a-real-hash' });
     expect(await getUserForSignIn({ email: `nobody-${tag}@users-test.test` })).toBeNull();
-  });
-
-  it('getSessionUser returns null for a malformed or unknown id', async () => {
-    const user = await newUser(companyA, 'session');
-    expect(await getSessionUser({ id: user.id })).toMatchObject({ id: user.id, companyName: 'Alpha' });
-    expect(await getSessionUser({ id: 'garbage' })).toBeNull();
-    expect(await getSessionUser({ id: randomUUID() })).toBeNull();
   });
 });
 

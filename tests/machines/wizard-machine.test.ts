@@ -61,7 +61,7 @@ function start({
 } = {}) {
   const sent: PendingAnswer[] = [];
   const persisted: PendingAnswer[][] = [];
-  let revalidations = 0;
+  const undoInputs: { diagnosisId: string; last?: string }[] = [];
   let loads = 0;
   const machine = wizardMachine.provide({
     actors: {
@@ -69,7 +69,10 @@ function start({
         sent.push(input.answer);
         return save(input.answer, sent.length);
       }),
-      undoAnswer: fromPromise(async () => undo()),
+      undoAnswer: fromPromise(async ({ input }) => {
+        undoInputs.push(input);
+        return undo();
+      }),
       loadView: fromPromise(async () => {
         loads++;
         return load();
@@ -79,9 +82,6 @@ function start({
       persistQueue: (_, params) => {
         persisted.push(params.pending);
       },
-      revalidate: () => {
-        revalidations++;
-      },
     },
   });
   const actor = createActor(machine, { input: { diagnosisId: DIAGNOSIS, version, view, pending }, ...(clock ? { clock } : {}) });
@@ -90,9 +90,7 @@ function start({
     actor,
     sent,
     persisted,
-    get revalidations() {
-      return revalidations;
-    },
+    undoInputs,
     get loads() {
       return loads;
     },
@@ -130,8 +128,9 @@ describe('wizard machine', () => {
     expect(w.ctx().saved.map((a) => a.stepId)).toEqual(['line-voltage']);
     expect(w.ctx().saved[0].band).toBe('Line voltage present');
     expect(w.ctx().stepId).toBe('control-supply');
-    expect(w.revalidations).toBe(1);
     expect(w.persisted.at(-1)).toEqual([]);
+    // Saved without a fetch of the whole diagnosis: nothing but the save was asked of the server.
+    expect(w.loads).toBe(0);
   });
 
   it('ignores an answer to a step that is not on screen, and a reading that leads nowhere', () => {
@@ -273,7 +272,9 @@ describe('wizard machine', () => {
     await flush();
     expect(undone.ctx().stepId).toBe('control-supply');
     expect(undone.ctx().saved).toHaveLength(1);
-    expect(undone.revalidations).toBe(1);
+    // The undo names the answer it takes back, so a second undo sent at the same time is refused, not applied.
+    expect(undone.undoInputs).toEqual([{ diagnosisId: DIAGNOSIS, last: w.ctx().saved.at(-1)?.clientId }]);
+    expect(undone.loads).toBe(0);
   });
 
   it('does not undo while answers wait to be saved, nor with nothing to undo', async () => {
@@ -353,5 +354,55 @@ describe('wizard machine', () => {
 
   it('backs off 1, 2, 4 … seconds, capped at 30 s', () => {
     expect([1, 2, 3, 4, 5, 6, 7, 10].map(retryDelayMs)).toEqual([1000, 2000, 4000, 8000, 16000, 30000, 30000, 30000]);
+  });
+
+  it('holds the queue and stops retrying when the session has ended, until the user says they signed in again', async () => {
+    let calls = 0;
+    const w = start({
+      save: async (a) => {
+        calls++;
+        return calls === 1 ? { type: 'signed-out', message: 'Your session has ended.' } : { type: 'saved', answer: echo(a) };
+      },
+    });
+    w.actor.send({ type: 'answer.submit', answer: { stepId: 'line-voltage', text: '120', value: 120 } });
+    await flush();
+    expect(w.actor.getSnapshot().hasTag('signed-out')).toBe(true);
+    expect(w.ctx().pending).toHaveLength(1);
+    expect(w.ctx().notice).toMatch(/Sign in again — your answer is kept on this device/);
+    expect(syncStatus(w.ctx(), true, true)).toMatchObject({ kind: 'signed-out' });
+    // No timer brings it back: a second call only comes with retry.now.
+    await new Promise((r) => setTimeout(r, 50));
+    expect(calls).toBe(1);
+    w.actor.send({ type: 'retry.now' });
+    await flush();
+    expect(calls).toBe(2);
+    expect(w.ctx().pending).toHaveLength(0);
+    expect(w.actor.getSnapshot().value).toBe('idle');
+  });
+
+  it('takes the finding check from the save that reaches the finding', async () => {
+    const contradictions = [{ stepId: 'flame-signal', value: 4.8, expected: { to: 2 }, reason: 'A dirty rod reads low.' }];
+    const w = start({
+      save: async (a) => ({ type: 'saved', answer: echo(a), diagnosis: { status: 'found', contradictions } }),
+    });
+    // Walk until a finding: the first band or choice of every step, every procedure confirmed.
+    for (let i = 0; i < 80 && !w.ctx().findingId; i++) {
+      const step = version.graph.steps.find((s) => s.id === w.ctx().stepId);
+      if (!step) {
+        w.actor.send({ type: 'answer.submit', answer: { stepId: w.ctx().stepId, confirmed: true } });
+      } else if (step.kind === 'measure') {
+        const band = step.bands[0];
+        const value = band.to !== undefined ? band.to - 0.001 : (band.from ?? 0) + 1;
+        w.actor.send({ type: 'answer.submit', answer: { stepId: step.id, text: String(value), value } });
+      } else if (step.kind === 'inspect') {
+        w.actor.send({ type: 'answer.submit', answer: { stepId: step.id, choice: step.choices[0].value } });
+      } else {
+        w.actor.send({ type: 'answer.submit', answer: { stepId: step.id, confirmed: true } });
+      }
+      await flush();
+    }
+    expect(w.ctx().findingId).not.toBeNull();
+    expect(w.ctx().findingCheck).toEqual({ findingId: w.ctx().findingId, contradictions });
+    expect(w.loads).toBe(0);
   });
 });

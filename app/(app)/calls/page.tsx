@@ -1,34 +1,18 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { CallsTable } from '@/components/calls/calls-table';
-import { FIELD_ROLES } from '@/lib/roles';
 import { findCalls, listCallAssignees } from '@/lib/server/calls';
-import { requirePageUser } from '@/lib/server/guard';
-import { viewerOf } from '@/lib/server/viewer';
-import type { CallRow } from '@/lib/swr/use-calls';
+import { pageScope } from '@/lib/server/operation';
+import { serviceCallSchema } from '@/lib/validations/api';
 
 export const metadata: Metadata = { title: 'Service calls' };
 export const dynamic = 'force-dynamic';
 
 export default async function CallsPage() {
-  const user = await requirePageUser({ roles: FIELD_ROLES });
-  const viewer = viewerOf(user);
-  const [calls, assignees] = await Promise.all([findCalls({ viewer }), listCallAssignees({ viewer })]);
-  const rows: CallRow[] = calls.map((c) => ({
-    id: c.id,
-    unitId: c.unitId,
-    unitLabel: c.unitLabel,
-    siteId: c.siteId,
-    siteName: c.siteName,
-    siteAddress: c.siteAddress,
-    complaint: c.complaint,
-    status: c.status,
-    technicianId: c.technicianId,
-    technicianName: c.technicianName,
-    technicianRole: c.technicianRole,
-    openedAt: c.openedAt.toISOString(),
-    closedAt: c.closedAt?.toISOString() ?? null,
-  }));
+  const { user, scope } = await pageScope('calls.list');
+  const [calls, assignees] = await Promise.all([findCalls({ scope }), listCallAssignees({ scope })]);
+  // The same rows GET /api/calls sends, so the table's later refreshes replace them like for like.
+  const rows = serviceCallSchema.array().parse(calls);
   const supervisor = user.role === 'lead' || user.role === 'admin';
   return (
     <div className="space-y-6 pb-24 sm:pb-0">

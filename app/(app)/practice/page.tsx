@@ -5,7 +5,7 @@ import { requirePageUser } from '@/lib/server/guard';
 export const metadata: Metadata = { title: 'Practice' };
 
 export default async function PracticePage() {
-  const user = await requirePageUser({ roles: ['apprentice', 'trainer'] });
+  const user = await requirePageUser({ page: '/practice' });
   return (
     <ComingLater title={user.role === 'trainer' ? 'Practice scenarios' : 'Practice'}>
       {user.role === 'trainer'

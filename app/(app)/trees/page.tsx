@@ -5,7 +5,7 @@ import { requirePageUser } from '@/lib/server/guard';
 export const metadata: Metadata = { title: 'Fault trees' };
 
 export default async function TreesPage() {
-  await requirePageUser({ roles: ['lead', 'admin'] });
+  await requirePageUser({ page: '/trees' });
   return (
     <ComingLater title="Fault trees">
       Leads will edit steps and outcomes here, send drafts to another lead for review, run the isolation check on the bench and publish new

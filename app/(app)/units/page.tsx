@@ -1,18 +1,15 @@
 import type { Metadata } from 'next';
 import { UnitsList } from '@/components/units/units-list';
 import { listUnitsBySite } from '@/lib/server/calls';
-import { requirePageUser } from '@/lib/server/guard';
-import { viewerOf } from '@/lib/server/viewer';
+import { pageScope } from '@/lib/server/operation';
 
 export const metadata: Metadata = { title: 'Units' };
 export const dynamic = 'force-dynamic';
 
-// Units carry every call's readings, so they open to those who see every call or sign off others'.
-const UNIT_ROLES = ['technician', 'lead', 'admin'] as const;
-
 export default async function UnitsPage() {
-  const user = await requirePageUser({ roles: UNIT_ROLES });
-  const sites = await listUnitsBySite({ viewer: viewerOf(user) });
+  // A unit carries every call's readings: the list opens to those who may open a unit's history.
+  const { scope } = await pageScope('units.get');
+  const sites = await listUnitsBySite({ scope });
   return (
     <div className="space-y-6">
       <div>

@@ -1,12 +1,8 @@
-// GET /api/company – the signed-in user's company settings; PATCH – changes them (admin only).
-import { getCompany, updateCompany } from '@/db/companies';
-import { route } from '@/lib/server/guard';
-import { companySettingsSchema } from '@/lib/validations/users';
+// GET /api/company – the signed-in user's company settings; PATCH – changes them (admin).
+import { routeOf } from '@/lib/server/operation';
+import { getCompanyOp, updateCompanyOp } from '@/lib/server/operations/company';
 
 export const dynamic = 'force-dynamic';
 
-export const GET = route({ roles: 'any' }, async ({ user }) => getCompany({ id: user.companyId }));
-
-export const PATCH = route({ roles: ['admin'], body: companySettingsSchema }, async ({ user, body }) =>
-  updateCompany({ id: user.companyId, patch: body }),
-);
+export const GET = routeOf(getCompanyOp);
+export const PATCH = routeOf(updateCompanyOp);

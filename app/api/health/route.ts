@@ -1,10 +1,7 @@
 // GET /api/health – whether the app and its database answer.
-import { NextResponse } from 'next/server';
-import { pingDatabase } from '@/db/health';
+import { routeOf } from '@/lib/server/operation';
+import { getHealthOp } from '@/lib/server/operations/auth';
 
 export const dynamic = 'force-dynamic';
 
-export async function GET() {
-  const up = await pingDatabase();
-  return NextResponse.json({ ok: up, db: up ? 'up' : 'down' }, { status: up ? 200 : 503 });
-}
+export const GET = routeOf(getHealthOp, { status: (health) => (health.ok ? 200 : 503) });

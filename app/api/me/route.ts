@@ -1,7 +1,7 @@
 // GET /api/me – the signed-in user and their company.
-import { route } from '@/lib/server/guard';
-import { publicUser } from '@/lib/server/auth';
+import { routeOf } from '@/lib/server/operation';
+import { getMeOp } from '@/lib/server/operations/auth';
 
 export const dynamic = 'force-dynamic';
 
-export const GET = route({ roles: 'any' }, async ({ user }) => publicUser(user));
+export const GET = routeOf(getMeOp);

@@ -1,13 +1,8 @@
-// GET /api/users – the company's users; POST /api/users – adds one. Admin only.
-import { NextResponse } from 'next/server';
-import { route } from '@/lib/server/guard';
-import { addCompanyUser, listCompanyUsers } from '@/lib/server/users';
-import { createUserSchema } from '@/lib/validations/users';
+// GET /api/users – the company's users; POST /api/users – adds one (admin).
+import { routeOf } from '@/lib/server/operation';
+import { createUserOp, listUsersOp } from '@/lib/server/operations/company';
 
 export const dynamic = 'force-dynamic';
 
-export const GET = route({ roles: ['admin'] }, async ({ user }) => listCompanyUsers({ admin: user }));
-
-export const POST = route({ roles: ['admin'], body: createUserSchema }, async ({ user, body }) =>
-  NextResponse.json(await addCompanyUser({ admin: user, input: body }), { status: 201 }),
-);
+export const GET = routeOf(listUsersOp);
+export const POST = routeOf(createUserOp, { status: 201 });

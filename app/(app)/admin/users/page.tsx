@@ -1,14 +1,15 @@
 import type { Metadata } from 'next';
 import { UsersAdmin } from '@/components/admin/users-admin';
-import { requirePageUser } from '@/lib/server/guard';
+import { pageScope } from '@/lib/server/operation';
 import { listCompanyUsers } from '@/lib/server/users';
+import { adminUserSchema } from '@/lib/validations/api';
 import { createUserAction, updateUserAction } from '../actions';
 
 export const metadata: Metadata = { title: 'Users' };
 
 export default async function UsersPage() {
-  const admin = await requirePageUser({ roles: ['admin'] });
-  const users = await listCompanyUsers({ admin });
+  const { user: admin, scope } = await pageScope('users.list');
+  const users = adminUserSchema.array().parse(await listCompanyUsers({ companyId: scope.companyId }));
   return (
     <div className="space-y-6">
       <div>
@@ -17,12 +18,7 @@ export default async function UsersPage() {
           Everyone who signs in for {admin.companyName}: a role change or deactivation ends that person&apos;s sessions at once.
         </p>
       </div>
-      <UsersAdmin
-        users={users.map((u) => ({ ...u, createdAt: u.createdAt.toISOString() }))}
-        currentUserId={admin.id}
-        createUser={createUserAction}
-        updateUser={updateUserAction}
-      />
+      <UsersAdmin users={users} currentUserId={admin.id} createUser={createUserAction} updateUser={updateUserAction} />
     </div>
   );
 }

@@ -1,6 +1,5 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { notFound } from 'next/navigation';
 import { closeCallAction, saveRepairAction, signOffAction, startDiagnosisAction } from '@/app/(app)/calls/actions';
 import { CallCaution } from '@/components/calls/call-caution';
 import { CloseCallControls, RepairForm, SignOffButton, StartDiagnosisButton } from '@/components/calls/call-controls';
@@ -8,11 +7,10 @@ import { CallStatusBadge } from '@/components/calls/call-status';
 import { DIAGNOSIS_LABELS, formatDateTime } from '@/components/calls/format';
 import { ReadingsTable } from '@/components/calls/readings-table';
 import { UnitCard } from '@/components/calls/unit-card';
-import { AppError } from '@/lib/errors';
-import { FIELD_ROLES, ROLE_LABELS, type Role } from '@/lib/roles';
+import { may } from '@/lib/policy';
+import { ROLE_LABELS, type Role } from '@/lib/roles';
 import { getCallPage } from '@/lib/server/calls';
-import { requirePageUser } from '@/lib/server/guard';
-import { viewerOf } from '@/lib/server/viewer';
+import { orNotFound, pageScope } from '@/lib/server/operation';
 
 export const metadata: Metadata = { title: 'Service call' };
 export const dynamic = 'force-dynamic';
@@ -20,17 +18,12 @@ export const dynamic = 'force-dynamic';
 const DIAGNOSIS_ICONS: Record<string, string> = { in_progress: '◐', found: '◆', escalated: '↗' };
 
 export default async function CallPage({ params }: { params: Promise<{ id: string }> }) {
-  const user = await requirePageUser({ roles: FIELD_ROLES });
+  const { user, scope } = await pageScope('calls.get');
   const { id } = await params;
-  let page;
-  try {
-    page = await getCallPage({ viewer: viewerOf(user), id });
-  } catch (error) {
-    if (error instanceof AppError && error.code === 'not_found') notFound();
-    throw error;
-  }
+  const page = await orNotFound(getCallPage({ scope, id }));
   const { call, unit, site, diagnoses, readings, defaultTree, closed } = page;
-  const canSignOff = user.role !== 'apprentice';
+  const canSignOff = may(user.role, 'diagnoses.signOff');
+  const canClose = may(user.role, 'calls.close');
   const inProgress = diagnoses.find((d) => d.status === 'in_progress');
   const checks = [...new Set(diagnoses.flatMap((d) => d.finding?.verification ?? []))];
   const startReason = closed
@@ -78,7 +71,7 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
 
       <CallCaution />
 
-      <UnitCard unit={unit} linkToUnit={user.role !== 'apprentice'} />
+      <UnitCard unit={unit} linkToUnit={may(user.role, 'units.get')} />
 
       <section aria-labelledby="diagnoses-heading" className="card space-y-4">
         <div className="flex flex-wrap items-start justify-between gap-3">
@@ -189,10 +182,8 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
         <h2 id="finish-heading" className="text-xl font-bold">
           {closed ? 'Report' : 'Finish the call'}
         </h2>
-        {!closed && user.role !== 'apprentice' && <CloseCallControls callId={call.id} closeCall={closeCallAction} />}
-        {!closed && user.role === 'apprentice' && (
-          <p className="text-muted">A technician reviews your finding, signs it off and closes the call.</p>
-        )}
+        {!closed && canClose && <CloseCallControls callId={call.id} closeCall={closeCallAction} />}
+        {!closed && !canClose && <p className="text-muted">A technician reviews your finding, signs it off and closes the call.</p>}
         <Link href={`/calls/${call.id}/report`} className="btn-secondary">
           Service report
         </Link>

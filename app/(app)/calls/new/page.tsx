@@ -2,19 +2,16 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { createCallAction, createSiteAction, createUnitAction } from '@/app/(app)/calls/actions';
 import { NewCallForm } from '@/components/calls/new-call-form';
-import { FIELD_ROLES } from '@/lib/roles';
 import { listCallAssignees, listSitesWithUnits } from '@/lib/server/calls';
-import { requirePageUser } from '@/lib/server/guard';
-import { viewerOf } from '@/lib/server/viewer';
+import { pageScope } from '@/lib/server/operation';
 
 export const metadata: Metadata = { title: 'New service call' };
 export const dynamic = 'force-dynamic';
 
 export default async function NewCallPage({ searchParams }: { searchParams: Promise<{ unitId?: string }> }) {
-  const user = await requirePageUser({ roles: FIELD_ROLES });
-  const viewer = viewerOf(user);
+  const { user, scope } = await pageScope('calls.create');
   const { unitId } = await searchParams;
-  const [sites, assignees] = await Promise.all([listSitesWithUnits({ viewer }), listCallAssignees({ viewer })]);
+  const [sites, assignees] = await Promise.all([listSitesWithUnits({ scope }), listCallAssignees({ scope })]);
   return (
     <div className="mx-auto max-w-3xl space-y-6">
       <div>

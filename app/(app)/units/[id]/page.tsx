@@ -1,31 +1,20 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { notFound } from 'next/navigation';
 import { CallStatusBadge } from '@/components/calls/call-status';
 import { formatDate } from '@/components/calls/format';
 import { ReadingsTable } from '@/components/calls/readings-table';
 import { UnitCard } from '@/components/calls/unit-card';
 import { FlameSignalChart } from '@/components/units/flame-signal-chart';
-import { AppError } from '@/lib/errors';
 import { getUnitPage } from '@/lib/server/calls';
-import { requirePageUser } from '@/lib/server/guard';
-import { viewerOf } from '@/lib/server/viewer';
+import { orNotFound, pageScope } from '@/lib/server/operation';
 
 export const metadata: Metadata = { title: 'Unit' };
 export const dynamic = 'force-dynamic';
 
-const UNIT_ROLES = ['technician', 'lead', 'admin'] as const;
-
 export default async function UnitPage({ params }: { params: Promise<{ id: string }> }) {
-  const user = await requirePageUser({ roles: UNIT_ROLES });
+  const { scope } = await pageScope('units.get');
   const { id } = await params;
-  let page;
-  try {
-    page = await getUnitPage({ viewer: viewerOf(user), id });
-  } catch (error) {
-    if (error instanceof AppError && error.code === 'not_found') notFound();
-    throw error;
-  }
+  const page = await orNotFound(getUnitPage({ scope, id }));
   const { unit, site, visits, readings, flame } = page;
   return (
     <div className="space-y-6 pb-8">

@@ -1,9 +1,5 @@
-// POST /api/auth/sign-in – checks e-mail and password, sets the session cookie.
-import { signInSchema } from '@/lib/validations/auth';
-import { clientAddress, route } from '@/lib/server/guard';
-import { publicUser, signIn } from '@/lib/server/auth';
+// POST /api/auth/sign-in – checks e-mail and password, starts a session and sets its cookie.
+import { routeOf } from '@/lib/server/operation';
+import { signInOp } from '@/lib/server/operations/auth';
 
-export const POST = route({ body: signInSchema }, async ({ request, body }) => {
-  const user = await signIn({ ...body, address: clientAddress(request) });
-  return publicUser(user);
-});
+export const POST = routeOf(signInOp);

@@ -1,8 +1,5 @@
-// POST /api/auth/sign-out – ends this browser's session.
-import { route } from '@/lib/server/guard';
-import { signOut } from '@/lib/server/auth';
+// POST /api/auth/sign-out – ends this session on the server and clears its cookie.
+import { routeOf } from '@/lib/server/operation';
+import { signOutOp } from '@/lib/server/operations/auth';
 
-export const POST = route({}, async () => {
-  await signOut();
-  return new Response(null, { status: 204 });
-});
+export const POST = routeOf(signOutOp, { status: 204 });

@@ -1,8 +1,7 @@
 // GET /api/diagnoses/{id} – where a diagnosis stands: its path, current step, finding.
-import { route } from '@/lib/server/guard';
-import { getDiagnosisView } from '@/lib/server/diagnoses';
-import { viewerOf } from '@/lib/server/viewer';
+import { routeOf } from '@/lib/server/operation';
+import { getDiagnosisOp } from '@/lib/server/operations/diagnoses';
 
 export const dynamic = 'force-dynamic';
 
-export const GET = route({ roles: 'any' }, async ({ user, params }) => getDiagnosisView({ viewer: viewerOf(user), id: params.id }));
+export const GET = routeOf(getDiagnosisOp, { params: { id: 'id' } });

@@ -1,8 +1,5 @@
-// PATCH /api/users/{id} – changes name, role or active, or revokes sessions. Admin only.
-import { route } from '@/lib/server/guard';
-import { changeCompanyUser } from '@/lib/server/users';
-import { updateUserSchema } from '@/lib/validations/users';
+// PATCH /api/users/{id} – changes name, role or active, or signs the user out everywhere (admin).
+import { routeOf } from '@/lib/server/operation';
+import { updateUserOp } from '@/lib/server/operations/company';
 
-export const PATCH = route({ roles: ['admin'], body: updateUserSchema }, async ({ user, params, body }) =>
-  changeCompanyUser({ admin: user, id: params.id, patch: body }),
-);
+export const PATCH = routeOf(updateUserOp, { params: { id: 'id' }, bodyAs: 'patch' });

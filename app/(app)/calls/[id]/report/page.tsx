@@ -1,27 +1,17 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { notFound } from 'next/navigation';
 import { PrintButton } from '@/components/report/print-button';
 import { ServiceReport } from '@/components/report/service-report';
-import { AppError } from '@/lib/errors';
-import { FIELD_ROLES } from '@/lib/roles';
 import { getCallReport } from '@/lib/server/calls';
-import { requirePageUser } from '@/lib/server/guard';
-import { viewerOf } from '@/lib/server/viewer';
+import { orNotFound, pageScope } from '@/lib/server/operation';
 
 export const metadata: Metadata = { title: 'Service report' };
 export const dynamic = 'force-dynamic';
 
 export default async function ReportPage({ params }: { params: Promise<{ id: string }> }) {
-  const user = await requirePageUser({ roles: FIELD_ROLES });
+  const { scope } = await pageScope('calls.get');
   const { id } = await params;
-  let report;
-  try {
-    report = await getCallReport({ viewer: viewerOf(user), id });
-  } catch (error) {
-    if (error instanceof AppError && error.code === 'not_found') notFound();
-    throw error;
-  }
+  const report = await orNotFound(getCallReport({ scope, id }));
   return (
     <div className="space-y-4">
       <div className="no-print flex flex-wrap items-center justify-between gap-3">

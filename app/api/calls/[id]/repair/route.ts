@@ -1,10 +1,5 @@
 // PUT /api/calls/{id}/repair – records the repair and its verification.
-import { route } from '@/lib/server/guard';
-import { FIELD_ROLES } from '@/lib/roles';
-import { saveRepair } from '@/lib/server/calls';
-import { viewerOf } from '@/lib/server/viewer';
-import { repairSchema } from '@/lib/validations/field';
+import { routeOf } from '@/lib/server/operation';
+import { recordRepairOp } from '@/lib/server/operations/field';
 
-export const PUT = route({ roles: FIELD_ROLES, body: repairSchema }, async ({ user, params, body }) =>
-  saveRepair({ viewer: viewerOf(user), id: params.id, input: body }),
-);
+export const PUT = routeOf(recordRepairOp, { params: { id: 'callId' } });

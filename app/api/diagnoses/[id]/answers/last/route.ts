@@ -1,6 +1,5 @@
-// DELETE /api/diagnoses/{id}/answers/last – undoes the last answer (kept on record, off the path).
-import { route } from '@/lib/server/guard';
-import { undoLastAnswer } from '@/lib/server/diagnoses';
-import { viewerOf } from '@/lib/server/viewer';
+// DELETE /api/diagnoses/{id}/answers/last?last={clientId} – undoes the last answer (kept on record, off the path).
+import { routeOf } from '@/lib/server/operation';
+import { undoAnswerOp } from '@/lib/server/operations/diagnoses';
 
-export const DELETE = route({ roles: 'any' }, async ({ user, params }) => undoLastAnswer({ viewer: viewerOf(user), id: params.id }));
+export const DELETE = routeOf(undoAnswerOp, { params: { id: 'diagnosisId' }, query: true });

@@ -1,0 +1,120 @@
+// The access policy: for every operation of the app, which roles may use it and which rows each of
+// them reaches. This table is the only place where that is decided. Route handlers, server actions
+// and pages all get their check from it (lib/server/operation.ts), the navigation is derived from
+// it, and tests/e2e/api/access-matrix.test.ts walks every row of it.
+//
+// Rows are always of the user's own company. Within the company:
+//   company    — every row;
+//   supervised — the user's own rows and those of the company's apprentices (a technician signs off
+//                an apprentice's finding);
+//   own        — only the user's own rows (an apprentice's own service calls).
+// A role that is not listed is refused with 403 whatever it asks for; a row outside the reach of a
+// listed role is answered 404, the same as a row that does not exist, so "not yours" never tells
+// anything about other people's records. Trainers work on practice scenarios: they see no real calls.
+import type { Role } from '@/lib/roles';
+
+export type Reach = 'company' | 'supervised' | 'own';
+
+export type Access =
+  /** Anyone, signed in or not (sign-in, health). */
+  { public: true } | { public?: false; roles: Partial<Record<Role, Reach>> };
+
+const everyone = { apprentice: 'company', technician: 'company', lead: 'company', trainer: 'company', admin: 'company' } as const;
+const field = { apprentice: 'company', technician: 'company', lead: 'company', admin: 'company' } as const;
+/** Service calls and what hangs off them (diagnoses, repair, sign-off). */
+const callWork = { apprentice: 'own', technician: 'supervised', lead: 'company', admin: 'company' } as const;
+const callSupervisors = { technician: 'supervised', lead: 'company', admin: 'company' } as const;
+const adminOnly = { admin: 'company' } as const;
+
+export const POLICY = {
+  'auth.signIn': { public: true },
+  'auth.signOut': { public: true },
+  'auth.signOutEverywhere': { roles: everyone },
+  'health.get': { public: true },
+  'me.get': { roles: everyone },
+
+  'company.get': { roles: everyone },
+  'company.update': { roles: adminOnly },
+  'users.list': { roles: adminOnly },
+  'users.create': { roles: adminOnly },
+  'users.update': { roles: adminOnly },
+
+  // Apprentices pick a site and unit when they open a call, but the history of a unit (every visit,
+  // every reading, by anyone) is for technicians and up.
+  'sites.list': { roles: field },
+  'sites.create': { roles: field },
+  'units.list': { roles: field },
+  'units.create': { roles: field },
+  'units.get': { roles: { technician: 'company', lead: 'company', admin: 'company' } },
+
+  'calls.list': { roles: callWork },
+  'calls.create': { roles: callWork },
+  'calls.get': { roles: callWork },
+  'calls.recordRepair': { roles: callWork },
+  'calls.close': { roles: callSupervisors },
+
+  'diagnoses.start': { roles: callWork },
+  'diagnoses.get': { roles: callWork },
+  'diagnoses.answer': { roles: callWork },
+  'diagnoses.undo': { roles: callWork },
+  'diagnoses.signOff': { roles: callSupervisors },
+
+  'trees.list': { roles: everyone },
+  'treeVersions.get': { roles: everyone },
+} as const satisfies Record<string, Access>;
+
+export type OperationName = keyof typeof POLICY;
+export const OPERATION_NAMES = Object.keys(POLICY) as OperationName[];
+
+export function accessOf(name: OperationName): Access {
+  return POLICY[name];
+}
+
+/** How far `role` reaches for `name`, or null when the role may not use it at all. */
+export function reachOf(name: OperationName, role: Role): Reach | null {
+  const access: Access = POLICY[name];
+  if (access.public) return 'company';
+  return access.roles[role] ?? null;
+}
+
+/** Roles that may use the operation (every role for a public one). */
+export function rolesFor(name: OperationName): Role[] {
+  const access: Access = POLICY[name];
+  const all: Role[] = ['apprentice', 'technician', 'lead', 'trainer', 'admin'];
+  return access.public ? all : all.filter((role) => access.roles[role] !== undefined);
+}
+
+export function may(role: Role, name: OperationName): boolean {
+  return reachOf(name, role) !== null;
+}
+
+/**
+ * The rows one operation may touch for one user: always one company, and within it the reach the
+ * policy gives the user's role. Every query of `db/` that reads or changes rows a user may not
+ * reach takes one of these, never the user's role.
+ */
+export interface Scope {
+  companyId: string;
+  userId: string;
+  reach: Reach;
+}
+
+/**
+ * Who may open each page of the navigation: the operation whose records the page shows, or, for a
+ * page that shows none yet, its roles. The navigation and the pages' own checks both read this.
+ */
+export const PAGE_ACCESS = {
+  '/calls': 'calls.list',
+  '/units': 'units.get',
+  '/trees': { roles: ['lead', 'admin'] },
+  '/practice': { roles: ['apprentice', 'trainer'] },
+  '/admin/users': 'users.list',
+  '/admin/company': 'company.update',
+} as const satisfies Record<string, OperationName | { roles: readonly Role[] }>;
+
+export type PagePath = keyof typeof PAGE_ACCESS;
+
+export function mayOpen(role: Role, page: PagePath): boolean {
+  const access: OperationName | { roles: readonly Role[] } = PAGE_ACCESS[page];
+  return typeof access === 'string' ? may(role, access) : access.roles.includes(role);
+}

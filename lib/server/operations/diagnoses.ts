@@ -1,0 +1,78 @@
+import 'server-only';
+import { z } from 'zod';
+import { getTreeVersion, listTrees } from '@/db/trees';
+import { answerDiagnosis, getDiagnosisView, signOffFinding, startDiagnosis, undoLastAnswer } from '@/lib/server/diagnoses';
+import { defineOperation } from '@/lib/server/operation';
+import { noInput, recordId } from '@/lib/server/operations/shared';
+import { toApiStep } from '@/lib/server/steps';
+import {
+  answerResultSchema,
+  diagnosisViewSchema,
+  startedDiagnosisSchema,
+  treeListSchema,
+  treeVersionOutSchema,
+} from '@/lib/validations/api';
+import { answerSchema, startDiagnosisSchema } from '@/lib/validations/field';
+
+// POST /api/calls/{id}/diagnoses · startDiagnosisAction
+export const startDiagnosisOp = defineOperation({
+  name: 'diagnoses.start',
+  input: startDiagnosisSchema.extend({ callId: recordId }),
+  output: startedDiagnosisSchema,
+  handler: async ({ scope, input }) => startDiagnosis({ scope, callId: input.callId, treeVersionId: input.treeVersionId }),
+});
+
+// GET /api/diagnoses/{id}
+export const getDiagnosisOp = defineOperation({
+  name: 'diagnoses.get',
+  input: z.object({ id: recordId }),
+  output: diagnosisViewSchema,
+  handler: async ({ scope, input }) => getDiagnosisView({ scope, id: input.id }),
+});
+
+// POST /api/diagnoses/{id}/answers · submitAnswerAction
+export const answerDiagnosisOp = defineOperation({
+  name: 'diagnoses.answer',
+  fieldsUnder: 'answer',
+  input: z.object({ diagnosisId: recordId, answer: answerSchema }),
+  output: answerResultSchema,
+  handler: async ({ scope, input }) => answerDiagnosis({ scope, id: input.diagnosisId, input: input.answer }),
+});
+
+// DELETE /api/diagnoses/{id}/answers/last?last={clientId} · undoAnswerAction
+export const undoAnswerOp = defineOperation({
+  name: 'diagnoses.undo',
+  input: z.object({
+    diagnosisId: recordId,
+    last: z.uuid({ error: 'last is the clientId of the answer you see as the last one.' }).optional(),
+  }),
+  output: diagnosisViewSchema,
+  handler: async ({ scope, input }) => undoLastAnswer({ scope, id: input.diagnosisId, last: input.last }),
+});
+
+// POST /api/diagnoses/{id}/sign-off · signOffAction
+export const signOffDiagnosisOp = defineOperation({
+  name: 'diagnoses.signOff',
+  input: z.object({ diagnosisId: recordId }),
+  output: diagnosisViewSchema,
+  handler: async ({ scope, input }) => signOffFinding({ scope, id: input.diagnosisId }),
+});
+
+// GET /api/trees
+export const listTreesOp = defineOperation({
+  name: 'trees.list',
+  input: noInput,
+  output: treeListSchema,
+  handler: async ({ scope }) => listTrees({ companyId: scope.companyId }),
+});
+
+// GET /api/tree-versions/{id}
+export const getTreeVersionOp = defineOperation({
+  name: 'treeVersions.get',
+  input: z.object({ id: recordId }),
+  output: treeVersionOutSchema,
+  handler: async ({ scope, input }) => {
+    const v = await getTreeVersion({ companyId: scope.companyId, id: input.id, fresh: true });
+    return { ...v, graph: { start: v.graph.start, steps: v.graph.steps.map(toApiStep) } };
+  },
+});

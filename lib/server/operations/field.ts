@@ -1,0 +1,107 @@
+import 'server-only';
+import { z } from 'zod';
+import { createSite, listSites } from '@/db/sites';
+import { createUnit, listUnits } from '@/db/units';
+import { findCalls, finishCall, getCallDetail, getUnitWithHistory, openCall, saveRepair } from '@/lib/server/calls';
+import { defineOperation } from '@/lib/server/operation';
+import { noInput, recordId } from '@/lib/server/operations/shared';
+import { callDetailSchema, serviceCallSchema, siteOutSchema, unitHistorySchema, unitOutSchema } from '@/lib/validations/api';
+import { callFilterSchema, callSchema, closeCallSchema, repairSchema, siteSchema, unitSchema } from '@/lib/validations/field';
+
+// GET /api/sites
+export const listSitesOp = defineOperation({
+  name: 'sites.list',
+  input: noInput,
+  output: z.array(siteOutSchema),
+  handler: async ({ scope }) => listSites({ companyId: scope.companyId }),
+});
+
+// POST /api/sites · createSiteAction
+export const createSiteOp = defineOperation({
+  name: 'sites.create',
+  input: siteSchema,
+  output: siteOutSchema,
+  handler: async ({ scope, input }) => createSite({ companyId: scope.companyId, ...input }),
+});
+
+// GET /api/units
+export const listUnitsOp = defineOperation({
+  name: 'units.list',
+  input: noInput,
+  output: z.array(unitOutSchema),
+  handler: async ({ scope }) => listUnits({ companyId: scope.companyId }),
+});
+
+// POST /api/units · createUnitAction
+export const createUnitOp = defineOperation({
+  name: 'units.create',
+  input: unitSchema,
+  output: unitOutSchema,
+  handler: async ({ scope, input }) => createUnit({ companyId: scope.companyId, input }),
+});
+
+// GET /api/units/{id}
+export const getUnitOp = defineOperation({
+  name: 'units.get',
+  input: z.object({ id: recordId }),
+  output: unitHistorySchema,
+  handler: async ({ scope, input }) => {
+    const { unit, readings, calls } = await getUnitWithHistory({ scope, id: input.id });
+    return { ...unit, readings, calls };
+  },
+});
+
+// GET /api/calls?status=&technician=
+export const listCallsOp = defineOperation({
+  name: 'calls.list',
+  input: callFilterSchema,
+  output: z.array(serviceCallSchema),
+  handler: async ({ scope, input }) => findCalls({ scope, ...input }),
+});
+
+// POST /api/calls · createCallAction
+export const createCallOp = defineOperation({
+  name: 'calls.create',
+  input: callSchema,
+  output: serviceCallSchema,
+  handler: async ({ scope, input }) => openCall({ scope, input }),
+});
+
+// GET /api/calls/{id}
+export const getCallOp = defineOperation({
+  name: 'calls.get',
+  input: z.object({ id: recordId }),
+  output: callDetailSchema,
+  handler: async ({ scope, input }) => {
+    const { call, unit, diagnoses } = await getCallDetail({ scope, id: input.id });
+    return {
+      ...call,
+      unit,
+      diagnoses: diagnoses.map((d) => ({
+        id: d.id,
+        status: d.status,
+        treeVersionId: d.treeVersionId,
+        findingStepId: d.findingStepId,
+        startedBy: d.userName,
+        startedAt: d.startedAt,
+        signedOffBy: d.signedOffByName,
+      })),
+    };
+  },
+});
+
+// PUT /api/calls/{id}/repair · saveRepairAction
+export const recordRepairOp = defineOperation({
+  name: 'calls.recordRepair',
+  input: repairSchema.extend({ callId: recordId }),
+  output: serviceCallSchema,
+  handler: async ({ scope, input: { callId, ...repair } }) => saveRepair({ scope, id: callId, input: repair }),
+});
+
+// POST /api/calls/{id}/close · closeCallAction
+export const closeCallOp = defineOperation({
+  name: 'calls.close',
+  input: closeCallSchema.extend({ callId: recordId }),
+  output: serviceCallSchema,
+  handler: async ({ scope, input }) => finishCall({ scope, userId: scope.userId, id: input.callId, outcome: input.outcome }),
+});

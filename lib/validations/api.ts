@@ -1,0 +1,258 @@
+// Output schemas: what every operation sends back, as its route handler (JSON) and its server action
+// (the same object) deliver it. The server parses each result through its schema, which drops any
+// field the schema does not name and turns dates into ISO strings; the client takes its types from
+// the same schemas (`z.output<…>`), so a wire type is never copied by hand.
+import { z } from 'zod';
+import type { ErrorCode } from '@/lib/errors';
+import { ROLES } from '@/lib/roles';
+import { CALL_STATUSES } from '@/lib/validations/field';
+import {
+  actionStepSchema,
+  ENERGY_STATES,
+  findingStepSchema,
+  inspectStepSchema,
+  measureStepSchema,
+  quantitySchema,
+} from '@/lib/trees/schema';
+
+/** A Date on the server, an ISO 8601 string on the wire. */
+export const isoDate = z.union([z.date(), z.string()]).transform((d) => (d instanceof Date ? d.toISOString() : new Date(d).toISOString()));
+const optionalDate = isoDate.nullable();
+
+const roleSchema = z.enum(ROLES);
+const callStatusSchema = z.enum(CALL_STATUSES);
+const diagnosisStatusSchema = z.enum(['in_progress', 'found', 'escalated']);
+const energySchema = z.enum(ENERGY_STATES);
+
+// ── Results every action shares ─────────────────────────────────────────────────────────────────
+
+/** What a server action returns: its output, or why not (the same code a route handler maps to a status). */
+export type ActionResult<T> =
+  { ok: true; data: T } | { ok: false; code: ErrorCode; message: string; fieldErrors?: Record<string, string[]>; retryAfter?: number };
+
+// ── People and company ──────────────────────────────────────────────────────────────────────────
+
+export const publicUserSchema = z.object({
+  id: z.string(),
+  email: z.string(),
+  name: z.string(),
+  role: roleSchema,
+  company: z.object({ id: z.string(), name: z.string() }),
+});
+export type PublicUser = z.output<typeof publicUserSchema>;
+
+export const adminUserSchema = z.object({
+  id: z.string(),
+  email: z.string(),
+  name: z.string(),
+  role: roleSchema,
+  active: z.boolean(),
+  createdAt: isoDate,
+});
+export type AdminUser = z.output<typeof adminUserSchema>;
+
+export const companySchema = z.object({
+  id: z.string(),
+  name: z.string(),
+  officeEmail: z.string(),
+  displayUnits: z.enum(['us', 'metric']),
+});
+export type CompanyOut = z.output<typeof companySchema>;
+
+export const healthSchema = z.object({ ok: z.boolean(), db: z.enum(['up', 'down']) });
+
+/** Nothing to send back (the route answers 204). */
+export const emptySchema = z.undefined();
+
+// ── Sites and units ─────────────────────────────────────────────────────────────────────────────
+
+export const siteOutSchema = z.object({
+  id: z.string(),
+  name: z.string(),
+  address: z.string(),
+  contactEmail: z.string().nullable(),
+});
+export type SiteOut = z.output<typeof siteOutSchema>;
+
+export const unitOutSchema = z.object({
+  id: z.string(),
+  siteId: z.string(),
+  siteName: z.string(),
+  siteAddress: z.string(),
+  label: z.string(),
+  ignition: z.enum(['two-rod', 'single-rod']),
+  fuel: z.enum(['natural-gas', 'lp']),
+  controlSupply: z.enum(['24v', 'line']),
+  transformerVa: z.number(),
+  installYear: z.number().nullable(),
+});
+export type UnitOut = z.output<typeof unitOutSchema>;
+
+export const unitReadingSchema = z.object({
+  answerId: z.string(),
+  callId: z.string(),
+  diagnosisId: z.string(),
+  stepId: z.string(),
+  stepTitle: z.string().nullable(),
+  quantity: z.string(),
+  value: z.number(),
+  text: z.string().nullable(),
+  unit: z.string().nullable(),
+  bandLabel: z.string().nullable(),
+  verdict: z.string().nullable(),
+  takenAt: isoDate,
+});
+
+export const unitHistorySchema = unitOutSchema.extend({
+  readings: z.array(unitReadingSchema),
+  calls: z.array(
+    z.object({ id: z.string(), complaint: z.string(), status: callStatusSchema, openedAt: isoDate, technicianName: z.string().nullable() }),
+  ),
+});
+
+// ── Service calls ───────────────────────────────────────────────────────────────────────────────
+
+export const verificationSchema = z.object({
+  cycles: z.number(),
+  flameSignal: z.object({ text: z.string(), value: z.number() }).nullable(),
+  checks: z.array(z.object({ text: z.string(), done: z.boolean() })),
+  notes: z.string().optional(),
+});
+
+export const serviceCallSchema = z.object({
+  id: z.string(),
+  unitId: z.string(),
+  unitLabel: z.string(),
+  siteId: z.string(),
+  siteName: z.string(),
+  siteAddress: z.string(),
+  complaint: z.string(),
+  status: callStatusSchema,
+  technicianId: z.string().nullable(),
+  technicianName: z.string().nullable(),
+  technicianRole: roleSchema.nullable(),
+  repairNotes: z.string().nullable(),
+  verification: verificationSchema.nullable(),
+  openedAt: isoDate,
+  closedAt: optionalDate,
+  closedByName: z.string().nullable(),
+});
+export type ServiceCallOut = z.output<typeof serviceCallSchema>;
+
+export const callRowSchema = serviceCallSchema.omit({ repairNotes: true, verification: true, closedByName: true });
+export type CallRow = z.output<typeof callRowSchema>;
+
+export const callDetailSchema = serviceCallSchema.extend({
+  unit: unitOutSchema,
+  diagnoses: z.array(
+    z.object({
+      id: z.string(),
+      status: diagnosisStatusSchema,
+      treeVersionId: z.string(),
+      findingStepId: z.string().nullable(),
+      startedBy: z.string().nullable(),
+      startedAt: isoDate,
+      signedOffBy: z.string().nullable(),
+    }),
+  ),
+});
+
+export const callStatusResultSchema = z.object({ id: z.string(), status: callStatusSchema });
+
+// ── Steps, answers and diagnoses ────────────────────────────────────────────────────────────────
+
+// A step as the API sends it: the tree's own step, with the measure step's canonical unit and
+// without what only the server needs (a finding's expectations).
+export const apiStepSchema = z.discriminatedUnion('kind', [
+  measureStepSchema.extend({ unit: z.string() }),
+  inspectStepSchema,
+  actionStepSchema,
+  findingStepSchema.omit({ expects: true }),
+]);
+export type ApiStep = z.output<typeof apiStepSchema>;
+export const apiFindingSchema = findingStepSchema.omit({ expects: true });
+
+export const apiAnswerSchema = z.object({
+  id: z.string(),
+  clientId: z.string(),
+  seq: z.number(),
+  stepId: z.string(),
+  stepTitle: z.string(),
+  kind: z.string(),
+  text: z.string().nullable(),
+  value: z.number().nullable(),
+  unit: z.string().nullable(),
+  quantity: quantitySchema.nullable(),
+  band: z.string().nullable(),
+  bandIndex: z.number().nullable(),
+  verdict: z.string().nullable(),
+  choice: z.string().nullable(),
+  choiceLabel: z.string().nullable(),
+  confirmed: z.boolean().nullable(),
+  at: isoDate,
+});
+export type ApiAnswer = z.output<typeof apiAnswerSchema>;
+
+export const contradictionSchema = z.object({
+  stepId: z.string(),
+  value: z.number(),
+  expected: z.object({ from: z.number().optional(), to: z.number().optional() }),
+  reason: z.string(),
+  takenAt: z.string().optional(),
+});
+export type Contradiction = z.output<typeof contradictionSchema>;
+
+export const diagnosisViewSchema = z.object({
+  id: z.string(),
+  callId: z.string(),
+  status: diagnosisStatusSchema,
+  treeVersionId: z.string(),
+  tree: z.object({ title: z.string(), version: z.number() }),
+  startedBy: z.object({ id: z.string().nullable(), name: z.string().nullable(), role: roleSchema.nullable() }),
+  signedOff: z.object({ by: z.string().nullable(), at: optionalDate }).nullable(),
+  energy: energySchema,
+  path: z.array(apiAnswerSchema),
+  current: apiStepSchema.nullable(),
+  finding: apiFindingSchema.nullable(),
+  contradictions: z.array(contradictionSchema),
+  callStatus: callStatusSchema,
+});
+export type DiagnosisViewOut = z.output<typeof diagnosisViewSchema>;
+
+export const startedDiagnosisSchema = z.object({ id: z.string(), step: apiStepSchema });
+
+/**
+ * What a save answers: the stored answer, where the walk goes next, and what the wizard would
+ * otherwise fetch the whole diagnosis for (its status and energy state, the contradictions once a
+ * finding is reached).
+ */
+export const answerResultSchema = z.object({
+  answer: apiAnswerSchema,
+  next: apiStepSchema.nullable(),
+  finding: apiFindingSchema.nullable(),
+  verdict: z.object({ band: z.string(), outcome: z.string(), position: z.number(), verdict: z.string(), value: z.number() }).optional(),
+  diagnosis: z.object({ status: diagnosisStatusSchema, energy: energySchema, contradictions: z.array(contradictionSchema) }),
+});
+export type AnswerResult = z.output<typeof answerResultSchema>;
+
+// ── Trees ───────────────────────────────────────────────────────────────────────────────────────
+
+export const treeListSchema = z.array(
+  z.object({
+    id: z.string(),
+    slug: z.string(),
+    title: z.string(),
+    published: z.object({ id: z.string(), version: z.number() }).nullable(),
+  }),
+);
+
+export const treeVersionOutSchema = z.object({
+  id: z.string(),
+  treeId: z.string(),
+  slug: z.string(),
+  title: z.string(),
+  version: z.number(),
+  status: z.enum(['draft', 'in_review', 'published', 'retired']),
+  publishedAt: optionalDate,
+  graph: z.object({ start: z.string(), steps: z.array(apiStepSchema) }),
+});
