@@ -192,6 +192,12 @@ export function spawnChild(cmd, args, opts = {}) {
   return spawn(cmd, args, { cwd: root, stdio: 'inherit', ...opts });
 }
 
+/** The environment `next start` runs with: the method guard preloaded (see scripts/http-guard.cjs). */
+export function serverEnv(env) {
+  const guard = `--require ${path.join(root, 'scripts', 'http-guard.cjs')}`;
+  return { ...env, NODE_OPTIONS: [env.NODE_OPTIONS, guard].filter(Boolean).join(' ') };
+}
+
 export function knex(args, env) {
   run(path.join(root, 'node_modules', '.bin', 'knex'), ['--knexfile', 'knexfile.ts', ...args], {
     env: { ...process.env, ...env, NODE_OPTIONS: '--import=tsx' },

@@ -14,6 +14,7 @@ import {
   portAnswers,
   root,
   run,
+  serverEnv,
   spawnChild,
   startCluster,
   waitForHttp,
@@ -102,7 +103,7 @@ async function main() {
     knex(['seed:run'], env);
     if (!dev) buildIfNeeded();
     const nextBin = path.join(root, 'node_modules', '.bin', 'next');
-    app = spawnChild(nextBin, [dev ? 'dev' : 'start', '-H', host, '-p', String(port)], { env });
+    app = spawnChild(nextBin, [dev ? 'dev' : 'start', '-H', host, '-p', String(port)], { env: serverEnv(env) });
     app.on('exit', (code) => stop(code ?? 0));
     await waitForHttp(`http://${host}:${port}/api/health`);
     console.log(`\n  Proving Ground is up: \x1b[1mhttp://${host}:${port}\x1b[0m\n`);

@@ -16,6 +16,7 @@ import {
   log,
   root,
   run,
+  serverEnv,
   spawnChild,
   startCluster,
   waitForHttp,
@@ -106,7 +107,7 @@ async function main() {
       const port = await freePort();
       const baseUrl = `http://127.0.0.1:${port}`;
       app = spawnChild(path.join(root, 'node_modules', '.bin', 'next'), ['start', '-H', '127.0.0.1', '-p', String(port)], {
-        env: { ...env, APP_URL: baseUrl, NEXT_TELEMETRY_DISABLED: '1' },
+        env: serverEnv({ ...env, APP_URL: baseUrl, NEXT_TELEMETRY_DISABLED: '1' }),
         stdio: ['ignore', 'ignore', 'inherit'],
       });
       await waitForHttp(`${baseUrl}/api/health`);

@@ -152,7 +152,7 @@ function rawRequest(
 
 describe('clean refusals at the edge', () => {
   it('answers 405 for methods the app never takes, and 413 for a body over 1 MB', async () => {
-    for (const method of ['TRACE', 'PROPFIND', 'BREW']) {
+    for (const method of ['TRACE', 'TRACK', 'PROPFIND', 'BREW']) {
       const res = await rawRequest(method, '/api/calls');
       expect(res.status, method).toBe(405);
     }

@@ -1,0 +1,227 @@
+// The access matrix, generated from the policy table (lib/policy.ts): every operation, for every
+// identity (anonymous, each role of our company, the other company's admin and technician), against
+// the caller's own row, someone else's row in the company, and the other company's row, through its
+// HTTP route. The expected answer comes from the policy alone: 401 without a session, 403 for a role
+// the policy does not list, 404 for a row out of the role's reach; anything else must be the
+// operation's own answer (2xx, or a 400/409 of its own), never 401/403/404 and never a 500.
+// Bodies are valid where a row is named (so the reach is what decides), and changes they make land
+// on rows made for this file. An operation of the policy without a row in ROUTES fails the suite.
+// @vitest-environment node
+import { randomUUID } from 'node:crypto';
+import knexFactory, { type Knex } from 'knex';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { OPERATION_NAMES, reachOf, type OperationName } from '@/lib/policy';
+import type { Role } from '@/lib/roles';
+import { ApiClient, DEMO, signedIn } from '../support/http';
+
+type Variant = 'own' | 'company' | 'other' | 'none';
+
+/** The records one case works on, by the kind of row the operation takes. */
+interface Rows {
+  callId: string;
+  diagnosisId: string;
+  unitId: string;
+  siteId: string;
+  userId: string;
+  treeVersionId: string;
+  /** The owner of the call: who the row belongs to. */
+  ownerRole: Role;
+}
+
+interface RouteCase {
+  method: string;
+  path: (r: Rows) => string;
+  body?: (r: Rows) => unknown;
+  /** Whether the operation works on a row (three variants) or on none (lists, the company, the user). */
+  rows: boolean;
+}
+
+const ROUTES: Record<OperationName, RouteCase> = {
+  'auth.signIn': { method: 'POST', path: () => '/api/auth/sign-in', body: () => ({ email: 'not an e-mail', password: 'x' }), rows: false },
+  'auth.signOut': { method: 'POST', path: () => '/api/auth/sign-out', rows: false },
+  'auth.signOutEverywhere': { method: 'POST', path: () => '/api/auth/sign-out-everywhere', rows: false },
+  'health.get': { method: 'GET', path: () => '/api/health', rows: false },
+  'me.get': { method: 'GET', path: () => '/api/me', rows: false },
+  'company.get': { method: 'GET', path: () => '/api/company', rows: false },
+  'company.update': {
+    method: 'PATCH',
+    path: () => '/api/company',
+    body: () => ({ name: '', officeEmail: 'x', displayUnits: 'us' }),
+    rows: false,
+  },
+  'users.list': { method: 'GET', path: () => '/api/users', rows: false },
+  'users.create': {
+    method: 'POST',
+    path: () => '/api/users',
+    body: () => ({ email: 'bad', name: '', role: 'apprentice', password: 'short' }),
+    rows: false,
+  },
+  'users.update': { method: 'PATCH', path: (r) => `/api/users/${r.userId}`, body: () => ({ name: 'Renamed by the matrix' }), rows: true },
+  'sites.list': { method: 'GET', path: () => '/api/sites', rows: false },
+  'sites.create': { method: 'POST', path: () => '/api/sites', body: () => ({ name: '', address: '' }), rows: false },
+  'units.list': { method: 'GET', path: () => '/api/units', rows: false },
+  'units.create': {
+    method: 'POST',
+    path: () => '/api/units',
+    body: (r) => ({
+      siteId: r.siteId,
+      label: 'Matrix furnace',
+      ignition: 'two-rod',
+      fuel: 'natural-gas',
+      controlSupply: '24v',
+      transformerVa: 40,
+    }),
+    rows: true,
+  },
+  'units.get': { method: 'GET', path: (r) => `/api/units/${r.unitId}`, rows: true },
+  'calls.list': { method: 'GET', path: () => '/api/calls', rows: false },
+  'calls.create': {
+    method: 'POST',
+    path: () => '/api/calls',
+    body: (r) => ({ unitId: r.unitId, complaint: 'No heat (matrix)' }),
+    rows: true,
+  },
+  'calls.get': { method: 'GET', path: (r) => `/api/calls/${r.callId}`, rows: true },
+  'calls.recordRepair': {
+    method: 'PUT',
+    path: (r) => `/api/calls/${r.callId}/repair`,
+    body: () => ({ repairNotes: 'Cleaned the flame rod (matrix)', cycles: 3 }),
+    rows: true,
+  },
+  'calls.close': { method: 'POST', path: (r) => `/api/calls/${r.callId}/close`, body: () => ({ outcome: 'referred' }), rows: true },
+  'diagnoses.start': {
+    method: 'POST',
+    path: (r) => `/api/calls/${r.callId}/diagnoses`,
+    body: (r) => ({ treeVersionId: r.treeVersionId }),
+    rows: true,
+  },
+  'diagnoses.get': { method: 'GET', path: (r) => `/api/diagnoses/${r.diagnosisId}`, rows: true },
+  'diagnoses.answer': {
+    method: 'POST',
+    path: (r) => `/api/diagnoses/${r.diagnosisId}/answers`,
+    body: () => ({ clientId: randomUUID(), stepId: 'no-such-step' }),
+    rows: true,
+  },
+  'diagnoses.undo': { method: 'DELETE', path: (r) => `/api/diagnoses/${r.diagnosisId}/answers/last?last=${randomUUID()}`, rows: true },
+  'diagnoses.signOff': { method: 'POST', path: (r) => `/api/diagnoses/${r.diagnosisId}/sign-off`, rows: true },
+  'trees.list': { method: 'GET', path: () => '/api/trees', rows: false },
+  'treeVersions.get': { method: 'GET', path: (r) => `/api/tree-versions/${r.treeVersionId}`, rows: true },
+};
+
+// The calls and diagnoses a reach covers: the whole company, one's own, or (supervised) one's own and apprentices'.
+const CALL_ROWS = /^(calls\.(get|recordRepair|close)|diagnoses\.(start|get|answer|undo|signOff))$/;
+
+interface Identity {
+  label: string;
+  email: string | null;
+  role: Role | null;
+  company: 'ours' | 'theirs';
+}
+
+const IDENTITIES: Identity[] = [
+  { label: 'anonymous', email: null, role: null, company: 'ours' },
+  { label: 'apprentice', email: DEMO.apprentice, role: 'apprentice', company: 'ours' },
+  { label: 'technician', email: DEMO.technician, role: 'technician', company: 'ours' },
+  { label: 'lead', email: DEMO.lead, role: 'lead', company: 'ours' },
+  { label: 'trainer', email: DEMO.trainer, role: 'trainer', company: 'ours' },
+  { label: 'admin', email: DEMO.admin, role: 'admin', company: 'ours' },
+  { label: 'other company admin', email: DEMO.otherAdmin, role: 'admin', company: 'theirs' },
+  { label: 'other company technician', email: DEMO.otherTechnician, role: 'technician', company: 'theirs' },
+];
+
+let db: Knex;
+const clients = new Map<string, ApiClient>();
+const rowsFor = new Map<string, Record<Exclude<Variant, 'none'>, Rows>>();
+
+async function userByEmail(email: string) {
+  return db('users').whereRaw('lower(email) = ?', [email]).first('id', 'company_id', 'role');
+}
+
+/** A call assigned to `ownerEmail`, with a diagnosis on it, in the owner's company. */
+async function callOf(ownerEmail: string): Promise<Rows> {
+  const owner = await userByEmail(ownerEmail);
+  const unit = await db('units').where({ company_id: owner.company_id }).first('id', 'site_id');
+  const version = await db('tree_versions').where({ company_id: owner.company_id, status: 'published' }).first('id');
+  const [call] = await db('service_calls')
+    .insert({ company_id: owner.company_id, unit_id: unit.id, complaint: 'No heat (matrix row)', technician_id: owner.id })
+    .returning('id');
+  const [diagnosis] = await db('diagnoses')
+    .insert({ company_id: owner.company_id, call_id: call.id, tree_version_id: version.id, user_id: owner.id })
+    .returning('id');
+  return {
+    callId: call.id,
+    diagnosisId: diagnosis.id,
+    unitId: unit.id,
+    siteId: unit.site_id,
+    userId: owner.id,
+    treeVersionId: version.id,
+    ownerRole: owner.role,
+  };
+}
+
+beforeAll(async () => {
+  db = knexFactory({ client: 'pg', connection: process.env.DATABASE_URL, pool: { min: 0, max: 2 } });
+  for (const identity of IDENTITIES) clients.set(identity.label, identity.email ? await signedIn(identity.email) : new ApiClient());
+  // Someone else in each company (a lead, not an apprentice, so a supervising technician does not reach it).
+  const oursElse = await callOf(DEMO.lead2);
+  const theirsElse = await callOf(DEMO.otherAdmin);
+  const theirsTech = await callOf(DEMO.otherTechnician);
+  for (const identity of IDENTITIES) {
+    const own = identity.email ? await callOf(identity.email) : oursElse;
+    if (identity.company === 'ours') rowsFor.set(identity.label, { own, company: oursElse, other: theirsTech });
+    else rowsFor.set(identity.label, { own, company: identity.email === DEMO.otherAdmin ? theirsTech : theirsElse, other: oursElse });
+  }
+});
+
+afterAll(async () => {
+  await db.destroy();
+});
+
+/** What the policy says the answer must be; `null` when the operation's own answer is expected. */
+function expected(name: OperationName, identity: Identity, variant: Variant, rows: Rows | null): 401 | 403 | 404 | null {
+  const isPublic = name === 'auth.signIn' || name === 'auth.signOut' || name === 'health.get';
+  if (isPublic) return null;
+  if (!identity.role) return 401;
+  const reach = reachOf(name, identity.role);
+  if (!reach) return 403;
+  if (variant === 'other') return 404;
+  if (variant === 'company' && CALL_ROWS.test(name)) {
+    if (reach === 'own') return 404;
+    if (reach === 'supervised' && rows?.ownerRole !== 'apprentice') return 404;
+  }
+  return null;
+}
+
+// Signing out ends the identity's session, so those two run after everything else.
+const LAST: OperationName[] = ['auth.signOut', 'auth.signOutEverywhere'];
+const ORDER = [...OPERATION_NAMES.filter((n) => !LAST.includes(n)), ...LAST];
+
+describe('access matrix from the policy table', () => {
+  it('has a route case for every operation of the policy', () => {
+    for (const name of OPERATION_NAMES) expect(ROUTES[name], name).toBeDefined();
+  });
+
+  for (const name of ORDER) {
+    it(`${name}: every identity and row answers as the policy says`, async () => {
+      const route = ROUTES[name];
+      expect(route, `no route case for ${name}`).toBeDefined();
+      const failures: string[] = [];
+      for (const identity of IDENTITIES) {
+        // Signing out ends the session it is sent with: those two get a session of their own each.
+        const client = LAST.includes(name) && identity.email ? await signedIn(identity.email) : clients.get(identity.label)!;
+        const variants: Variant[] = route.rows ? ['own', 'company', 'other'] : ['none'];
+        for (const variant of variants) {
+          const rows = variant === 'none' ? rowsFor.get(identity.label)!.own : rowsFor.get(identity.label)![variant];
+          const res = await client.call(route.method, route.path(rows), route.body?.(rows));
+          const want = expected(name, identity, variant, rows);
+          const where = `${identity.label} × ${variant}: ${res.status} ${res.text.slice(0, 120)}`;
+          if (res.status >= 500) failures.push(`${where} (a 500)`);
+          else if (want !== null && res.status !== want) failures.push(`${where} (wanted ${want})`);
+          else if (want === null && [401, 403, 404].includes(res.status)) failures.push(`${where} (wanted the operation's own answer)`);
+          else if (res.status >= 400 && typeof res.json?.error?.message !== 'string') failures.push(`${where} (no error message)`);
+        }
+      }
+      expect(failures).toEqual([]);
+    });
+  }
+});

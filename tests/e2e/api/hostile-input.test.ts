@@ -1,0 +1,217 @@
+// Hostile input, property-based: every JSON route gets a few hundred bodies made by fast-check —
+// arbitrary JSON, or a valid body with fields swapped for control characters, NUL, lone
+// surrogates, huge strings, hex numbers, null, arrays and objects. Every answer must be a clean
+// answer (never a 500; a 4xx says why in words), and a refused request changes nothing: the
+// touched tables keep their row counts and checksum.
+// @vitest-environment node
+import { randomUUID } from 'node:crypto';
+import fc from 'fast-check';
+import knexFactory, { type Knex } from 'knex';
+import { afterAll, beforeAll, describe, expect, it } from 'vitest';
+import { ApiClient, DEMO, signedIn } from '../support/http';
+
+const RUNS = Number(process.env.HOSTILE_RUNS ?? 200);
+const TABLES = ['companies', 'users', 'sites', 'units', 'service_calls', 'diagnoses', 'answers'];
+
+let db: Knex;
+let admin: ApiClient;
+let tech: ApiClient;
+const ids: Record<string, string> = {};
+
+async function checksum(): Promise<string> {
+  const parts = await Promise.all(
+    TABLES.map(async (t) => {
+      const row = await db(t).first(
+        db.raw('count(*)::int as n'),
+        db.raw(`md5(coalesce(string_agg(${t}::text, '|' order by id), '')) as h`),
+      );
+      return `${t}:${row.n}:${row.h}`;
+    }),
+  );
+  return parts.join(' ');
+}
+
+beforeAll(async () => {
+  db = knexFactory({ client: 'pg', connection: process.env.DATABASE_URL, pool: { min: 0, max: 2 } });
+  admin = await signedIn(DEMO.admin);
+  tech = await signedIn(DEMO.technician);
+  const version = (await tech.get('/api/trees')).json.find((t: any) => t.published).published.id;
+  const site = await tech.post('/api/sites', { name: 'Hostile site', address: '1 Fuzz Row' });
+  const unit = await tech.post('/api/units', {
+    siteId: site.json.id,
+    label: 'Hostile furnace',
+    ignition: 'two-rod',
+    fuel: 'natural-gas',
+    controlSupply: '24v',
+    transformerVa: 40,
+  });
+  const call = await tech.post('/api/calls', { unitId: unit.json.id, complaint: 'No heat (hostile)' });
+  const diagnosis = await tech.post(`/api/calls/${call.json.id}/diagnoses`, { treeVersionId: version });
+  const technician = await db('users').where({ email: DEMO.technician }).first('id');
+  Object.assign(ids, {
+    version,
+    site: site.json.id,
+    unit: unit.json.id,
+    call: call.json.id,
+    diagnosis: diagnosis.json.id,
+    step: diagnosis.json.step.id,
+    user: technician.id,
+  });
+});
+
+afterAll(async () => {
+  await db.destroy();
+});
+
+const nasty = fc.oneof(
+  fc.jsonValue(),
+  fc.string({ unit: 'binary', maxLength: 40 }),
+  fc.constantFrom(
+    '\u0000',
+    'a\u0000b',
+    '\u0007bell',
+    '\ud800',
+    'x'.repeat(5000),
+    `${'a'.repeat(3000)}@demo.test`,
+    '0x28',
+    '4e1',
+    'Infinity',
+    ' ',
+    '',
+  ),
+  fc.constantFrom(null, true, false, [], {}, -1, 0, 1e308, Number.MAX_SAFE_INTEGER),
+);
+
+/** Arbitrary JSON, or the valid body with some of its fields swapped for nasty values (and maybe an extra key). */
+function bodies(valid: Record<string, unknown>) {
+  const keys = Object.keys(valid);
+  const mutated = fc
+    .record({
+      swaps: fc.subarray(keys, { minLength: 1 }),
+      values: fc.array(nasty, { minLength: keys.length, maxLength: keys.length }),
+      extra: fc.option(fc.tuple(fc.string({ maxLength: 10 }), nasty), { nil: undefined }),
+    })
+    .map(({ swaps, values, extra }) => {
+      const body: Record<string, unknown> = { ...valid };
+      swaps.forEach((k, i) => (body[k] = values[i]));
+      if (extra) body[extra[0]] = extra[1];
+      return body;
+    });
+  return keys.length ? fc.oneof({ weight: 1, arbitrary: fc.jsonValue() }, { weight: 3, arbitrary: mutated }) : fc.jsonValue();
+}
+
+interface Target {
+  method: string;
+  path: () => string;
+  client: () => ApiClient;
+  valid: () => Record<string, unknown>;
+}
+
+const TARGETS: Record<string, Target> = {
+  'POST /api/auth/sign-in': {
+    method: 'POST',
+    path: () => '/api/auth/sign-in',
+    client: () => new ApiClient(),
+    valid: () => ({ email: 'nobody@demo.test', password: 'x' }),
+  },
+  'PATCH /api/company': {
+    method: 'PATCH',
+    path: () => '/api/company',
+    client: () => admin,
+    valid: () => ({ name: 'Kestrel Valley Heating Co.', officeEmail: 'office@kestrel.demo.test', displayUnits: 'us' }),
+  },
+  'POST /api/users': {
+    method: 'POST',
+    path: () => '/api/users',
+    client: () => admin,
+    valid: () => ({ email: `fuzz-${randomUUID()}@demo.test`, name: 'Fuzz', role: 'apprentice', password: 'long-enough-123' }),
+  },
+  'PATCH /api/users/{id}': {
+    method: 'PATCH',
+    path: () => `/api/users/${ids.user}`,
+    client: () => admin,
+    valid: () => ({ name: 'Tech Nician' }),
+  },
+  'POST /api/sites': {
+    method: 'POST',
+    path: () => '/api/sites',
+    client: () => tech,
+    valid: () => ({ name: 'Fuzz site', address: '2 Fuzz Row', contactEmail: '' }),
+  },
+  'POST /api/units': {
+    method: 'POST',
+    path: () => '/api/units',
+    client: () => tech,
+    valid: () => ({
+      siteId: ids.site,
+      label: 'Fuzz furnace',
+      ignition: 'two-rod',
+      fuel: 'lp',
+      controlSupply: 'line',
+      transformerVa: 40,
+      installYear: 2010,
+    }),
+  },
+  'POST /api/calls': {
+    method: 'POST',
+    path: () => '/api/calls',
+    client: () => tech,
+    valid: () => ({ unitId: ids.unit, complaint: 'No heat' }),
+  },
+  'PUT /api/calls/{id}/repair': {
+    method: 'PUT',
+    path: () => `/api/calls/${ids.call}/repair`,
+    client: () => tech,
+    valid: () => ({
+      repairNotes: 'Cleaned the rod',
+      cycles: 3,
+      flameSignal: '4.1',
+      checks: [{ text: 'Three cycles', done: true }],
+      notes: '',
+    }),
+  },
+  'POST /api/calls/{id}/diagnoses': {
+    method: 'POST',
+    path: () => `/api/calls/${ids.call}/diagnoses`,
+    client: () => tech,
+    valid: () => ({ treeVersionId: ids.version }),
+  },
+  'POST /api/diagnoses/{id}/answers': {
+    method: 'POST',
+    path: () => `/api/diagnoses/${ids.diagnosis}/answers`,
+    client: () => tech,
+    valid: () => ({ clientId: randomUUID(), stepId: ids.step, text: '121', unit: 'VAC', choice: 'x', confirmed: true }),
+  },
+  'POST /api/calls/{id}/close': {
+    method: 'POST',
+    path: () => `/api/calls/${ids.call}/close`,
+    client: () => tech,
+    valid: () => ({ outcome: 'closed' }),
+  },
+};
+
+describe('hostile input on every JSON route', () => {
+  for (const [label, target] of Object.entries(TARGETS)) {
+    it(`${label}: ${RUNS} hostile bodies, a clean answer each, nothing changed by a refusal`, async () => {
+      let before = await checksum();
+      const problems: string[] = [];
+      await fc.assert(
+        fc.asyncProperty(bodies(target.valid()), async (body) => {
+          const res = await target.client().call(target.method, target.path(), body);
+          const shown = `${res.status} for ${JSON.stringify(body).slice(0, 160)}: ${res.text.slice(0, 160)}`;
+          if (res.status >= 500) problems.push(shown);
+          if (res.status >= 400) {
+            if (typeof res.json?.error?.message !== 'string' || !res.json.error.message.trim()) problems.push(`no message: ${shown}`);
+            const after = await checksum();
+            if (after !== before) problems.push(`changed the tables: ${shown}`);
+          } else {
+            before = await checksum();
+          }
+          return res.status < 500;
+        }),
+        { numRuns: RUNS, endOnFailure: true },
+      );
+      expect(problems).toEqual([]);
+    });
+  }
+});
