@@ -7,7 +7,6 @@ import prettier from 'eslint-config-prettier';
 const config = [
   ...nextVitals,
   ...nextTs,
-  prettier,
   {
     rules: {
       // `_name` marks a value left out on purpose (a rest destructure that drops a field).
@@ -15,10 +14,17 @@ const config = [
     },
   },
   {
-    // Tests build fixtures loosely typed from JSON answers.
-    files: ['tests/**'],
+    // The HTTP and browser tests are black-box: they read the API's JSON answers untyped and check each
+    // field with expect, on purpose without borrowing the server's types, which they are there to check.
+    files: ['tests/e2e/**'],
     rules: { '@typescript-eslint/no-explicit-any': 'off' },
   },
+  {
+    // CommonJS on purpose: preloaded into the server with `node --require` (scripts/http-guard.cjs).
+    files: ['**/*.cjs'],
+    rules: { '@typescript-eslint/no-require-imports': 'off' },
+  },
+  prettier,
   {
     // Build output and data: the app's build folders (.next-* are side builds, see DEVELOPERS.md), the
     // database cluster, and the bench's results and floor-app builds.
