@@ -24,6 +24,11 @@ const config = [
     files: ['**/*.cjs'],
     rules: { '@typescript-eslint/no-require-imports': 'off' },
   },
+  {
+    // CommonJS files (a `node --require` preload must be one) import with require().
+    files: ['**/*.cjs'],
+    rules: { '@typescript-eslint/no-require-imports': 'off' },
+  },
   prettier,
   {
     // Build output and data: the app's build folders (.next-* are side builds, see DEVELOPERS.md), the
