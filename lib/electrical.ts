@@ -44,26 +44,6 @@ function requireGauge(awg: number): void {
   }
 }
 
-/**
- * Reads a gauge as written on a jacket or a spool: "18", "18 AWG", "1/0", "0000", "4/0".
- * Returns the number the other functions take (00 → -1, 000 → -2, 0000 → -3).
- */
-export function parseAwg(text: string): number {
-  const s = text
-    .trim()
-    .replace(/\s*awg$/i, '')
-    .replace(/^#/, '')
-    .trim();
-  let awg: number;
-  const slash = /^([1-4])\/0$/.exec(s);
-  if (slash) awg = 1 - Number(slash[1]);
-  else if (/^0{2,4}$/.test(s)) awg = 1 - s.length;
-  else if (/^\d{1,2}$/.test(s)) awg = Number(s);
-  else throw new RangeError(`"${text}" is not a wire gauge`);
-  requireGauge(awg);
-  return awg;
-}
-
 /** Diameter of a solid round conductor, ASTM B258: d = 0.005 in × 92^((36 − n)/39). */
 export function awgDiameterInches(awg: number): number {
   requireGauge(awg);

@@ -231,11 +231,6 @@ function strip({ symbol, label, toCanonical, fromCanonical }: UnitSpec): UnitDef
   return { symbol, label, toCanonical, fromCanonical };
 }
 
-/** The unit a symbol or spelling names within a quantity, or undefined if it names none there. */
-export function findUnit(quantity: Quantity, unitText: string): UnitDef | undefined {
-  return findInQuantity(quantity, unitText);
-}
-
 /** Why a unit is refused for this quantity: it belongs to another quantity, or to none we know. */
 function unitMismatchMessage(quantity: Quantity, unitText: string): string {
   const shown = unitText.trim();

@@ -1,5 +1,5 @@
 import { all, create } from 'mathjs';
-import { awgDiameterInches, copperResistanceOhmsPerKft, parseAwg, transformerLoad, voltageAtLoad, voltageDrop } from '@/lib/electrical';
+import { awgDiameterInches, copperResistanceOhmsPerKft, transformerLoad, voltageAtLoad, voltageDrop } from '@/lib/electrical';
 
 const math = create(all);
 
@@ -33,27 +33,6 @@ describe('awgDiameterInches', () => {
 
   it.each([41, -4, 18.5, Number.NaN, Number.POSITIVE_INFINITY])('refuses gauge %s', (awg) => {
     expect(() => awgDiameterInches(awg)).toThrow(/Unknown wire gauge/);
-  });
-});
-
-describe('parseAwg', () => {
-  it.each([
-    ['18', 18],
-    ['18 AWG', 18],
-    ['#14', 14],
-    ['0', 0],
-    ['1/0', 0],
-    ['00', -1],
-    ['2/0', -1],
-    ['000', -2],
-    ['0000', -3],
-    ['4/0', -3],
-  ] as const)('reads %s as %i', (text, awg) => {
-    expect(parseAwg(text)).toBe(awg);
-  });
-
-  it.each(['', 'abc', '5/0', '41', '00000', '18.5'])('refuses "%s"', (text) => {
-    expect(() => parseAwg(text)).toThrow(RangeError);
   });
 });
 

@@ -8,7 +8,6 @@ import {
   UNITS_BY_QUANTITY,
   convert,
   displayUnitFor,
-  findUnit,
   formatReading,
   parseReading,
 } from '@/lib/units';
@@ -307,8 +306,9 @@ describe('UNITS_BY_QUANTITY and convert', () => {
   });
 
   it('finds units by their spellings', () => {
-    expect(findUnit('ohm', 'MEGOHM')?.symbol).toBe('MΩ');
-    expect(findUnit('vdc', 'MV')).toBeUndefined(); // megavolts are not millivolts
+    expect(parseReading('ohm', '2 MEGOHM')).toMatchObject({ ok: true, unit: 'MΩ', value: 2e6 });
+    expect(parseReading('vdc', '5', 'MV').ok).toBe(false); // megavolts are not millivolts
+    expect(parseReading('vdc', '5 mV')).toMatchObject({ ok: true, unit: 'mVDC', value: 0.005 });
   });
 });
 

@@ -11,7 +11,6 @@ export const VIEWPORTS = {
   phone: { width: 390, height: 844 },
   desktop: { width: 1280, height: 800 },
 } as const;
-export type ViewportName = keyof typeof VIEWPORTS;
 export type Theme = 'light' | 'dark';
 
 export interface Browser {
