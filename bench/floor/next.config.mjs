@@ -4,9 +4,11 @@ import path from 'node:path';
 // insert. Built from inside the project so Turbopack finds the project's node_modules.
 const root = path.resolve(import.meta.dirname, '..', '..');
 
-export default {
+const config = {
   distDir: process.env.FLOOR_DIST_DIR ?? '.next-floor',
   serverExternalPackages: ['pg'],
   turbopack: { root },
   poweredByHeader: false,
 };
+
+export default config;

@@ -6,12 +6,12 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
 import { Field, FormMessage, TextInput } from '@/components/ui/field';
-import type { FieldErrors } from '@/lib/errors';
+import type { ActionResult } from '@/lib/validations/api';
 import { companySettingsSchema } from '@/lib/validations/users';
 
 type Input = z.input<typeof companySettingsSchema>;
 type Output = z.output<typeof companySettingsSchema>;
-type Result = { ok: true; data: unknown } | { ok: false; message: string; fieldErrors?: FieldErrors };
+type Result = ActionResult<unknown>;
 
 export function CompanySettingsForm({ initial, save }: { initial: Output; save: (input: unknown) => Promise<Result> }) {
   const router = useRouter();

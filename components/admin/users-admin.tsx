@@ -7,20 +7,14 @@ import { useState, useTransition } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
 import { Field, FormMessage, Select, TextInput } from '@/components/ui/field';
-import type { FieldErrors } from '@/lib/errors';
+import type { ActionResult, AdminUser } from '@/lib/validations/api';
 import { ROLE_LABELS, ROLES, type Role } from '@/lib/roles';
 import { createUserSchema, type UpdateUserInput } from '@/lib/validations/users';
 
-export interface AdminUserRow {
-  id: string;
-  email: string;
-  name: string;
-  role: Role;
-  active: boolean;
-  createdAt: string;
-}
+/** A user as GET /api/users sends it. */
+export type AdminUserRow = AdminUser;
 
-type Result<T> = { ok: true; data: T } | { ok: false; message: string; fieldErrors?: FieldErrors };
+type Result<T> = ActionResult<T>;
 
 interface Props {
   users: AdminUserRow[];

@@ -6,10 +6,10 @@ import { useState, useTransition } from 'react';
 import { useForm } from 'react-hook-form';
 import { z } from 'zod';
 import { Field, FormMessage, TextInput } from '@/components/ui/field';
-import type { FieldErrors } from '@/lib/errors';
+import type { ActionResult } from '@/lib/validations/api';
 import { repairSchema } from '@/lib/validations/field';
 
-type Result<T> = { ok: true; data: T } | { ok: false; message: string; fieldErrors?: FieldErrors };
+type Result<T> = ActionResult<T>;
 type Act<T> = (input: unknown) => Promise<Result<T>>;
 
 /** Starts a diagnosis on the default tree and goes to its first step. */

@@ -10,28 +10,15 @@ import { FUEL_LABELS, IGNITION_LABELS, SUPPLY_LABELS } from '@/components/calls/
 import { SegmentOption, Segmented } from '@/components/calls/segmented';
 import { Field, FormMessage, Select, TextInput } from '@/components/ui/field';
 import type { FieldErrors } from '@/lib/errors';
+import type { ActionResult, SiteOut as ApiSite, UnitOut as ApiUnit } from '@/lib/validations/api';
 import { callSchema, siteSchema, unitSchema } from '@/lib/validations/field';
 
-type Result<T> = { ok: true; data: T } | { ok: false; message: string; fieldErrors?: FieldErrors };
+type Result<T> = ActionResult<T>;
 
-export interface PickerUnit {
-  id: string;
-  siteId: string;
-  label: string;
-  ignition: 'two-rod' | 'single-rod';
-  fuel: 'natural-gas' | 'lp';
-  controlSupply: '24v' | 'line';
-  transformerVa: number;
-  installYear: number | null;
-}
+/** A unit as the API sends it, without its site's name and address (the picker groups by site). */
+export type PickerUnit = Omit<ApiUnit, 'siteName' | 'siteAddress'>;
 
-export interface PickerSite {
-  id: string;
-  name: string;
-  address: string;
-  contactEmail: string | null;
-  units: PickerUnit[];
-}
+export type PickerSite = ApiSite & { units: PickerUnit[] };
 
 interface Props {
   sites: PickerSite[];

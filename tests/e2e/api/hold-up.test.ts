@@ -170,6 +170,19 @@ describe('clean refusals at the edge', () => {
   });
 });
 
+describe('pages answer their real status', () => {
+  it('answers 404, not a 200 with the not-found page streamed in it, for a diagnosis or call that is not yours', async () => {
+    const tech = await signedIn(DEMO.technician);
+    const d = await newDiagnosis(tech);
+    expect((await tech.get(`/calls/${d.callId}/diagnoses/${d.id}`)).status).toBe(200);
+    const other = await signedIn(DEMO.otherTechnician);
+    expect((await other.get(`/calls/${d.callId}/diagnoses/${d.id}`)).status).toBe(404);
+    expect((await other.get(`/calls/${d.callId}`)).status).toBe(404);
+    const apprentice = await signedIn(DEMO.apprentice);
+    expect((await apprentice.get(`/calls/${d.callId}/diagnoses/${d.id}`)).status).toBe(404);
+  });
+});
+
 describe('saves under real parallel requests', () => {
   it('stores exactly one answer for 20 copies of one save sent at once, and all of them get it', async () => {
     const tech = await signedIn(DEMO.technician);
