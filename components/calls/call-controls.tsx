@@ -209,7 +209,7 @@ export function CloseCallControls({ callId, closeCall }: { callId: string; close
         setMessage({ tone: 'error', text: result.message });
         return;
       }
-      setMessage({ tone: 'ok', text: outcome === 'closed' ? 'The call is closed.' : 'The call is referred.' });
+      // The page itself says the call is closed once it is refreshed; these controls then go.
       router.refresh();
     });
   return (

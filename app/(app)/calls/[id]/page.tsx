@@ -182,6 +182,11 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
         <h2 id="finish-heading" className="text-xl font-bold">
           {closed ? 'Report' : 'Finish the call'}
         </h2>
+        {closed && (
+          <p className="font-semibold" role="status">
+            {call.status === 'referred' ? 'The call is referred.' : 'The call is closed.'}
+          </p>
+        )}
         {!closed && canClose && <CloseCallControls callId={call.id} closeCall={closeCallAction} />}
         {!closed && !canClose && <p className="text-muted">A technician reviews your finding, signs it off and closes the call.</p>}
         <Link href={`/calls/${call.id}/report`} className="btn-secondary">
