@@ -1,11 +1,11 @@
 import { z } from 'zod';
+import { emailAddress, objectError, secret } from '@/lib/validations/text';
 
-export const signInSchema = z.object({
-  email: z
-    .string({ error: 'Enter your e-mail address.' })
-    .trim()
-    .toLowerCase()
-    .pipe(z.email({ error: 'Enter a valid e-mail address.' })),
-  password: z.string({ error: 'Enter your password.' }).min(1, { error: 'Enter your password.' }).max(200),
-});
+export const signInSchema = z.object(
+  {
+    email: emailAddress({ label: 'The e-mail address', required: 'Enter your e-mail address.' }),
+    password: secret({ label: 'The password', min: 1, max: 200, missing: 'Enter your password.', tooShort: 'Enter your password.' }),
+  },
+  { error: objectError('the sign-in') },
+);
 export type SignInInput = z.infer<typeof signInSchema>;

@@ -1,48 +1,55 @@
 import { z } from 'zod';
 import { ROLES } from '@/lib/roles';
+import { emailAddress, objectError, secret, singleLine } from '@/lib/validations/text';
 
-const name = z
-  .string({ error: 'Enter a name.' })
-  .trim()
-  .min(1, { error: 'Enter a name.' })
-  .max(120, { error: 'Keep the name under 120 characters.' });
+const name = singleLine({ label: 'The name', max: 120, required: 'Enter a name.' });
 const role = z.enum(ROLES, { error: `Role must be one of: ${ROLES.join(', ')}.` });
 
-export const createUserSchema = z.object({
-  email: z
-    .string({ error: 'Enter an e-mail address.' })
-    .trim()
-    .toLowerCase()
-    .pipe(z.email({ error: 'Enter a valid e-mail address.' })),
-  name,
-  role,
-  password: z
-    .string({ error: 'Enter a starting password.' })
-    .min(12, { error: 'Use at least 12 characters.' })
-    .max(200, { error: 'Keep the password under 200 characters.' }),
-});
+const PASSWORD_MIN = 12;
+const PASSWORD_MAX = 200;
+
+export const createUserSchema = z.object(
+  {
+    email: emailAddress({ label: 'The e-mail address', required: 'Enter an e-mail address.' }),
+    name,
+    role,
+    password: secret({
+      label: 'The password',
+      min: PASSWORD_MIN,
+      max: PASSWORD_MAX,
+      missing: 'Enter a starting password.',
+      tooShort: `Use at least ${PASSWORD_MIN} characters.`,
+    }),
+  },
+  { error: objectError('the new user') },
+);
 export type CreateUserInput = z.infer<typeof createUserSchema>;
 
 export const updateUserSchema = z
-  .object({
-    name: name.optional(),
-    role: role.optional(),
-    active: z.boolean({ error: 'active is true or false.' }).optional(),
-    revokeSessions: z.literal(true, { error: 'revokeSessions can only be true.' }).optional(),
-  })
-  .strict()
-  .refine((v) => Object.keys(v).length > 0, { error: 'Nothing to change: send name, role, active or revokeSessions.' });
+  .strictObject(
+    {
+      name: name.optional(),
+      role: role.optional(),
+      active: z.boolean({ error: 'active is true or false.' }).optional(),
+      revokeSessions: z.literal(true, { error: 'revokeSessions can only be true.' }).optional(),
+    },
+    { error: objectError('the change') },
+  )
+  // Only for an otherwise clean change: unknown fields alone already say what is wrong.
+  .refine((v) => Object.keys(v).length > 0, {
+    error: 'Nothing to change: send name, role, active or revokeSessions.',
+    when: (payload) => payload.issues.length === 0,
+  });
 export type UpdateUserInput = z.infer<typeof updateUserSchema>;
 
-export const companySettingsSchema = z.object({
-  name: z.string().trim().min(1, { error: 'Enter the company name.' }).max(120),
-  officeEmail: z
-    .string()
-    .trim()
-    .toLowerCase()
-    .pipe(z.email({ error: 'Enter a valid e-mail address.' })),
-  displayUnits: z.enum(['us', 'metric'], { error: 'Choose US customary or metric.' }),
-});
+export const companySettingsSchema = z.object(
+  {
+    name: singleLine({ label: 'The company name', max: 120, required: 'Enter the company name.' }),
+    officeEmail: emailAddress({ label: 'The office e-mail address', required: 'Enter the office e-mail address.' }),
+    displayUnits: z.enum(['us', 'metric'], { error: 'Choose US customary or metric.' }),
+  },
+  { error: objectError('the company settings') },
+);
 export type CompanySettingsInput = z.infer<typeof companySettingsSchema>;
 
 export const uuidSchema = z.uuid({ error: 'Not a valid id.' });

@@ -32,8 +32,37 @@ describe('createUserSchema', () => {
 
   it('refuses a blank name, a long name and a bad e-mail, each with its message', () => {
     expect(refusal(createUserSchema, { ...good, name: '   ' }).fieldErrors.name).toEqual(['Enter a name.']);
-    expect(refusal(createUserSchema, { ...good, name: 'n'.repeat(121) }).fieldErrors.name).toEqual(['Keep the name under 120 characters.']);
+    expect(refusal(createUserSchema, { ...good, name: 'n'.repeat(121) }).fieldErrors.name).toEqual(['The name is at most 120 characters.']);
     expect(refusal(createUserSchema, { ...good, email: 'not-an-address' }).fieldErrors.email).toEqual(['Enter a valid e-mail address.']);
+  });
+
+  it('refuses a password over 200 characters, saying "at most 200 characters", and accepts 200', () => {
+    expect(refusal(createUserSchema, { ...good, password: 'x'.repeat(201) }).fieldErrors.password).toEqual([
+      'The password is at most 200 characters.',
+    ]);
+    expect(createUserSchema.safeParse({ ...good, password: 'x'.repeat(200) }).success).toBe(true);
+  });
+
+  it('refuses NUL and other control characters in the name and the e-mail, with the field named', () => {
+    for (const c of ['\u0000', '\u0008', '\u001b', '\u0085']) {
+      const { fieldErrors } = refusal(createUserSchema, { ...good, name: `Ada${c}Quist`, email: `ada${c}@example.test` });
+      expect(fieldErrors.name).toEqual(['The name cannot contain control characters.']);
+      expect(fieldErrors.email).toEqual(['The e-mail address cannot contain control characters.']);
+    }
+  });
+
+  // RFC 5321 §4.5.3.1.3: a forward path is at most 256 octets with its angle brackets, so 254 for the address.
+  it('limits the e-mail address to 254 characters, checked before the format', () => {
+    const at = (n: number) => `${'a'.repeat(n - '@example.test'.length)}@example.test`;
+    expect(createUserSchema.parse({ ...good, email: at(254) }).email).toHaveLength(254);
+    expect(refusal(createUserSchema, { ...good, email: at(255) }).fieldErrors.email).toEqual([
+      'The e-mail address is at most 254 characters.',
+    ]);
+    const huge = `${'a'.repeat(3000)}@example.test`;
+    expect(() => createUserSchema.safeParse({ ...good, email: huge })).not.toThrow();
+    expect(refusal(createUserSchema, { ...good, email: huge }).fieldErrors.email).toEqual([
+      'The e-mail address is at most 254 characters.',
+    ]);
   });
 
   it('reports every missing field at once', () => {
@@ -61,6 +90,15 @@ describe('updateUserSchema', () => {
     expect(updateUserSchema.safeParse({ email: 'x@y.test' }).success).toBe(false);
   });
 
+  it('answers an unknown field alone with that one message, not also "Nothing to change"', () => {
+    expect(refusal(updateUserSchema, { email: 'x@y.test' }).formErrors).toEqual(['Unknown field in the change: "email".']);
+  });
+
+  it('refuses NUL in a new name, and a long one, with the field named', () => {
+    expect(refusal(updateUserSchema, { name: 'Bo\u0000' }).fieldErrors.name).toEqual(['The name cannot contain control characters.']);
+    expect(refusal(updateUserSchema, { name: 'n'.repeat(121) }).fieldErrors.name).toEqual(['The name is at most 120 characters.']);
+  });
+
   it('refuses a bad role, a non-boolean active and revokeSessions: false', () => {
     expect(refusal(updateUserSchema, { role: 'boss' }).fieldErrors.role).toEqual([
       'Role must be one of: apprentice, technician, lead, trainer, admin.',
@@ -84,6 +122,19 @@ describe('companySettingsSchema', () => {
     expect(fieldErrors.name).toEqual(['Enter the company name.']);
     expect(fieldErrors.officeEmail).toEqual(['Enter a valid e-mail address.']);
     expect(fieldErrors.displayUnits).toEqual(['Choose US customary or metric.']);
+  });
+
+  it('refuses NUL in the company name, a long name and a long office e-mail, in words', () => {
+    const ok = { name: 'Acme', officeEmail: 'office@acme.test', displayUnits: 'us' };
+    expect(refusal(companySettingsSchema, { ...ok, name: 'Ac\u0000me' }).fieldErrors.name).toEqual([
+      'The company name cannot contain control characters.',
+    ]);
+    expect(refusal(companySettingsSchema, { ...ok, name: 'a'.repeat(121) }).fieldErrors.name).toEqual([
+      'The company name is at most 120 characters.',
+    ]);
+    expect(refusal(companySettingsSchema, { ...ok, officeEmail: `${'o'.repeat(250)}@acme.test` }).fieldErrors.officeEmail).toEqual([
+      'The office e-mail address is at most 254 characters.',
+    ]);
   });
 });
 
