@@ -2,24 +2,11 @@
 
 import useSWR from 'swr';
 import { fetcher } from '@/lib/swr/fetcher';
+import type { ServiceCallOut } from '@/lib/validations/api';
 import type { CallStatus } from '@/lib/validations/field';
 
-/** A service call as GET /api/calls sends it (dates as ISO strings). */
-export interface CallRow {
-  id: string;
-  unitId: string;
-  unitLabel: string;
-  siteId: string;
-  siteName: string;
-  siteAddress: string;
-  complaint: string;
-  status: CallStatus;
-  technicianId: string | null;
-  technicianName: string | null;
-  technicianRole: string | null;
-  openedAt: string;
-  closedAt: string | null;
-}
+/** A service call as GET /api/calls sends it: the output schema's type, dates as ISO strings. */
+export type CallRow = ServiceCallOut;
 
 export interface CallFilter {
   status?: CallStatus;

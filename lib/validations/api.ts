@@ -139,9 +139,6 @@ export const serviceCallSchema = z.object({
 });
 export type ServiceCallOut = z.output<typeof serviceCallSchema>;
 
-export const callRowSchema = serviceCallSchema.omit({ repairNotes: true, verification: true, closedByName: true });
-export type CallRow = z.output<typeof callRowSchema>;
-
 export const callDetailSchema = serviceCallSchema.extend({
   unit: unitOutSchema,
   diagnoses: z.array(

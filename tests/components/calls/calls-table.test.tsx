@@ -20,6 +20,9 @@ const row = (over: Partial<CallRow>): CallRow => ({
   technicianRole: 'technician',
   openedAt: '2026-11-30T10:00:00.000Z',
   closedAt: null,
+  repairNotes: null,
+  verification: null,
+  closedByName: null,
   ...over,
 });
 
