@@ -1,13 +1,14 @@
 // `npm run bench`: the save path against a floor, on this machine, in one run. A throwaway
 // PostgreSQL cluster, the app built and served as in production, and beside it a bare Next.js app
-// whose one route handler does one raw insert (bench/floor). At 1, 8 and 32 concurrent clients,
-// each client walks its own diagnoses (POST /api/diagnoses/{id}/answers, each answer to the step
-// the last save named) or posts to the floor, in a closed loop for a fixed time. Prints p50, p95,
-// p99 and requests/s for both, the ratios, and the issue's targets at 32 clients.
-// Flags: --quick (3 s a level). BENCH_SECONDS sets the seconds a level.
+// whose one route handler does one raw insert (bench/floor), both against the same cluster. At 1, 8
+// and 32 concurrent clients, each app client walks its own diagnoses (POST /api/diagnoses/{id}/answers,
+// each answer to the step the last save named) and each floor client posts to the floor, in a closed
+// loop for a fixed time after a warm-up. Only those POSTs are timed. Prints p50/p95/p99 and requests/s
+// for both, the ratios, and the issue's targets. Exit code 0 whenever the bench ran, met or not.
+// Flags: --quick (3 s a level). BENCH_SECONDS sets the seconds a level; DATABASE_POOL_MAX goes to both servers.
 import { randomUUID } from 'node:crypto';
+import { mkdirSync, mkdtempSync, openSync, closeSync, rmSync, writeFileSync } from 'node:fs';
 import http from 'node:http';
-import { mkdtempSync, rmSync } from 'node:fs';
 import os from 'node:os';
 import path from 'node:path';
 import {
@@ -17,7 +18,6 @@ import {
   freePort,
   knex,
   log,
-  psql,
   root,
   run,
   serverEnv,
@@ -30,146 +30,312 @@ const quick = process.argv.includes('--quick');
 const SECONDS = Number(process.env.BENCH_SECONDS ?? (quick ? 3 : 8));
 const WARMUP_SECONDS = quick ? 1 : 2;
 const LEVELS = [1, 8, 32];
+// A request that takes longer counts as an error (the stalled app of the issue waited ~60 s).
 const REQUEST_TIMEOUT_MS = 15_000;
-const MAX_REQUESTS_PER_LEVEL = 200_000;
+// Hard caps so that no loop runs unbounded even when every request fails at once.
+const MAX_REQUESTS_PER_LEVEL = 250_000;
+const MAX_DIAGNOSES_PER_LEVEL = 4_000;
+const SETUP_DEADLINE_MS = 120_000;
+const POOL_MAX = process.env.DATABASE_POOL_MAX ?? '10';
+const TARGETS = { p95: 2, rps: 0.5 };
 
-const agent = new http.Agent({ keepAlive: true, maxSockets: 256 });
+if (!Number.isFinite(SECONDS) || SECONDS <= 0) {
+  console.error(`BENCH_SECONDS must be a positive number of seconds, not ${JSON.stringify(process.env.BENCH_SECONDS)}.`);
+  process.exit(2);
+}
 
-/** One HTTP request with a keep-alive agent; the same client code for the app and the floor. */
+// The same client code for both targets: node:http with one keep-alive agent, no retries.
+const agent = new http.Agent({ keepAlive: true, maxSockets: Infinity });
+
+/** One request; resolves (never rejects) with the status (0 for a network error or a timeout). */
 function request(base, method, urlPath, body, cookie) {
   return new Promise((resolve) => {
     const payload = body === undefined ? undefined : JSON.stringify(body);
+    let settled = false;
+    const done = (result) => {
+      if (settled) return;
+      settled = true;
+      clearTimeout(timer);
+      resolve(result);
+    };
     const req = http.request(
       base + urlPath,
       {
         method,
         agent,
-        timeout: REQUEST_TIMEOUT_MS,
         headers: {
-          ...(payload ? { 'content-type': 'application/json', 'content-length': Buffer.byteLength(payload) } : {}),
+          accept: 'application/json',
+          ...(payload ? { 'content-type': 'application/json', 'content-length': Buffer.byteLength(payload), origin: base } : {}),
           ...(cookie ? { cookie } : {}),
         },
       },
       (res) => {
         const chunks = [];
         res.on('data', (c) => chunks.push(c));
+        res.on('error', (error) => done({ status: 0, json: null, text: error.message, setCookie: [] }));
         res.on('end', () => {
           const text = Buffer.concat(chunks).toString('utf8');
           let json = null;
           try {
             json = JSON.parse(text);
           } catch {
-            /* not JSON */
+            // Not JSON (an HTML error page, say): the status still tells.
           }
-          resolve({ status: res.statusCode, json, text, setCookie: res.headers['set-cookie'] ?? [] });
+          done({ status: res.statusCode, json, text, setCookie: res.headers['set-cookie'] ?? [] });
         });
       },
     );
-    req.on('timeout', () => req.destroy(new Error('timeout')));
-    req.on('error', (error) => resolve({ status: 0, json: null, text: String(error.message), setCookie: [] }));
+    // A deadline for the whole exchange, not only for an idle socket.
+    const timer = setTimeout(() => {
+      req.destroy(new Error(`no answer within ${REQUEST_TIMEOUT_MS / 1000} s`));
+    }, REQUEST_TIMEOUT_MS);
+    req.on('error', (error) => done({ status: 0, json: null, text: error.message, setCookie: [] }));
     if (payload) req.write(payload);
     req.end();
   });
 }
 
-/** An answer to `step`: a value inside a band picked by `k`, the k-th choice, or a confirmation. */
-function answerFor(step, k) {
+const ok2xx = (status) => status >= 200 && status < 300;
+const sleep = (ms) => new Promise((r) => setTimeout(r, ms));
+
+/** A small seeded generator (mulberry32), so that each client picks its own, repeatable paths. */
+function randomFrom(seed) {
+  let a = seed >>> 0;
+  return () => {
+    a = (a + 0x6d2b79f5) >>> 0;
+    let t = a;
+    t = Math.imul(t ^ (t >>> 15), t | 1);
+    t ^= t + Math.imul(t ^ (t >>> 7), t | 61);
+    return ((t ^ (t >>> 14)) >>> 0) / 4294967296;
+  };
+}
+
+/** A value well inside a band: the middle of [from, to), or a step beyond the one end it has. */
+function valueInBand({ from, to }) {
+  if (from !== undefined && to !== undefined) return (from + to) / 2;
+  if (from !== undefined) return from + Math.max(0.5, Math.abs(from) * 0.2);
+  if (to !== undefined) return to > 0 ? to / 2 : to - Math.max(0.5, Math.abs(to) * 0.2);
+  return 0;
+}
+
+/** The answer to `step`, in the shape the answers route takes: a band, a choice or a confirmation picked by `random`. */
+function answerFor(step, random) {
+  const clientId = randomUUID();
+  const pick = (list) => list[Math.floor(random() * list.length)];
   if (step.kind === 'measure') {
-    const band = step.bands[k % step.bands.length];
-    const { from, to } = band;
-    const value =
-      from !== undefined && to !== undefined
-        ? (from + to) / 2
-        : from !== undefined
-          ? from + Math.max(1, Math.abs(from) * 0.5)
-          : to > 0
-            ? to / 2
-            : to - 1;
-    return { clientId: randomUUID(), stepId: step.id, text: String(Number(value.toFixed(4))), unit: step.unit };
+    const value = valueInBand(pick(step.bands));
+    return { clientId, stepId: step.id, text: String(Number(value.toFixed(4))), unit: step.unit };
   }
-  if (step.kind === 'inspect') return { clientId: randomUUID(), stepId: step.id, choice: step.choices[k % step.choices.length].value };
-  return { clientId: randomUUID(), stepId: step.id, confirmed: true };
+  if (step.kind === 'inspect') return { clientId, stepId: step.id, choice: pick(step.choices).value };
+  if (step.kind === 'action') return { clientId, stepId: step.id, confirmed: true };
+  throw new Error(`the app asked for an answer to a ${step.kind} step (${step.id})`);
+}
+
+/** Retries `attempt` (which returns a value or throws) until it succeeds or the deadline passes. */
+async function untilDeadline(attempt, deadline, onFailure) {
+  for (;;) {
+    try {
+      return await attempt();
+    } catch (error) {
+      onFailure?.(error);
+      if (performance.now() + 250 >= deadline) throw error;
+      await sleep(250);
+    }
+  }
+}
+
+function must(res, status, what) {
+  if (res.status !== status) throw new Error(`${what} answered ${res.status || 'no answer'}: ${res.text.slice(0, 300)}`);
+  return res.json;
+}
+
+/** A technician's client: its own session, site and unit, and diagnoses of calls on that unit. */
+async function createAppClient(base, treeVersionId, n) {
+  const deadline = performance.now() + SETUP_DEADLINE_MS;
+  const cookie = await untilDeadline(async () => {
+    const res = await request(base, 'POST', '/api/auth/sign-in', { email: 'technician@demo.test', password: 'demo-password' });
+    must(res, 200, 'Signing in');
+    return res.setCookie.map((c) => c.split(';')[0]).join('; ');
+  }, deadline);
+  const site = await untilDeadline(
+    async () =>
+      must(await request(base, 'POST', '/api/sites', { name: `Bench site ${n}`, address: `${n} Bench Row` }, cookie), 201, 'Adding a site'),
+    deadline,
+  );
+  const unit = await untilDeadline(
+    async () =>
+      must(
+        await request(
+          base,
+          'POST',
+          '/api/units',
+          {
+            siteId: site.id,
+            label: `Bench furnace ${n}`,
+            ignition: 'two-rod',
+            fuel: 'natural-gas',
+            controlSupply: '24v',
+            transformerVa: 40,
+          },
+          cookie,
+        ),
+        201,
+        'Adding a unit',
+      ),
+    deadline,
+  );
+  const random = randomFrom(0x5eed + n * 7919);
+  const client = {
+    n,
+    random,
+    current: null,
+    /** Diagnoses started before the timed part, taken one by one as walks reach their findings. */
+    ready: [],
+    /** Opens a call on the unit and starts a diagnosis; throws when the app refuses or does not answer. */
+    async startDiagnosis() {
+      const call = must(
+        await request(base, 'POST', '/api/calls', { unitId: unit.id, complaint: 'No heat (bench)' }, cookie),
+        201,
+        'Opening a call',
+      );
+      const d = must(
+        await request(base, 'POST', `/api/calls/${call.id}/diagnoses`, { treeVersionId }, cookie),
+        201,
+        'Starting a diagnosis',
+      );
+      return { id: d.id, step: d.step };
+    },
+    /** One save, timed; the step it names is the next one answered. */
+    async save() {
+      const body = answerFor(client.current.step, random);
+      const started = performance.now();
+      const res = await request(base, 'POST', `/api/diagnoses/${client.current.id}/answers`, body, cookie);
+      const ms = performance.now() - started;
+      const ok = ok2xx(res.status);
+      let finished = false;
+      if (ok && res.json?.next) client.current = { id: client.current.id, step: res.json.next };
+      else {
+        // A finding ends the walk; after a failed save the diagnosis is in a state this client does not
+        // know, so it is left too.
+        finished = ok;
+        client.current = null;
+      }
+      return { ms, ok, status: res.status, text: res.text, finished };
+    },
+  };
+  return client;
+}
+
+function createFloorClient(base) {
+  return {
+    async save() {
+      const started = performance.now();
+      const res = await request(base, 'POST', '/api/floor', { clientId: randomUUID(), stepId: 'floor', text: '121', unit: 'V' });
+      return { ms: performance.now() - started, ok: ok2xx(res.status), status: res.status, text: res.text, finished: false };
+    },
+  };
 }
 
 function percentile(sorted, p) {
   if (!sorted.length) return NaN;
-  return sorted[Math.min(sorted.length - 1, Math.ceil((p / 100) * sorted.length) - 1)];
+  return sorted[Math.min(sorted.length - 1, Math.max(0, Math.ceil((p / 100) * sorted.length) - 1))];
 }
 
-/** A client of the app: its own session, site, unit, and a fresh diagnosis whenever one reaches its finding. */
-async function appClient(base, treeVersionId, n) {
-  const signIn = await request(base, 'POST', '/api/auth/sign-in', { email: 'technician@demo.test', password: 'demo-password' });
-  if (signIn.status !== 200) throw new Error(`sign-in answered ${signIn.status}: ${signIn.text}`);
-  const cookie = signIn.setCookie.map((c) => c.split(';')[0]).join('; ');
-  const site = await request(base, 'POST', '/api/sites', { name: `Bench site ${n}`, address: `${n} Bench Row` }, cookie);
-  const unit = await request(
-    base,
-    'POST',
-    '/api/units',
-    {
-      siteId: site.json.id,
-      label: `Bench furnace ${n}`,
-      ignition: 'two-rod',
-      fuel: 'natural-gas',
-      controlSupply: '24v',
-      transformerVa: 40,
-    },
-    cookie,
-  );
-  let k = n;
-  const fresh = async () => {
-    const call = await request(base, 'POST', '/api/calls', { unitId: unit.json.id, complaint: 'No heat (bench)' }, cookie);
-    const d = await request(base, 'POST', `/api/calls/${call.json.id}/diagnoses`, { treeVersionId }, cookie);
-    if (d.status !== 201) throw new Error(`starting a diagnosis answered ${d.status}: ${d.text}`);
-    return { id: d.json.id, step: d.json.step };
-  };
-  let current = await fresh();
-  return {
-    /** One timed save; the set-up of the next diagnosis after a finding is not timed. */
-    async step() {
-      const body = answerFor(current.step, k++);
-      const started = performance.now();
-      const res = await request(base, 'POST', `/api/diagnoses/${current.id}/answers`, body, cookie);
-      const ms = performance.now() - started;
-      const ok = res.status === 200;
-      if (ok && res.json.next) current = { id: current.id, step: res.json.next };
-      else current = await fresh();
-      return { ms, ok, status: res.status };
-    },
-  };
+/**
+ * Gives an app client a diagnosis to answer: one started before the timed part if any is left,
+ * else a new one (counted, so the report says when the ready ones ran out). Null once `deadline` passes.
+ */
+async function ensureDiagnosis(client, deadline, stats) {
+  if (client.current) return true;
+  const ready = client.ready.pop();
+  if (ready) {
+    client.current = ready;
+    return true;
+  }
+  if (stats.diagnoses >= MAX_DIAGNOSES_PER_LEVEL) return false;
+  try {
+    stats.diagnoses++;
+    stats.startedInLoop++;
+    client.current = await untilDeadline(
+      () => client.startDiagnosis(),
+      deadline,
+      (error) => {
+        stats.setupErrors++;
+        stats.setupSample ??= error.message;
+      },
+    );
+    return true;
+  } catch {
+    return false;
+  }
 }
 
-function floorClient(base) {
-  return {
-    async step() {
-      const started = performance.now();
-      const res = await request(base, 'POST', '/api/floor', { clientId: randomUUID(), value: 121 });
-      return { ms: performance.now() - started, ok: res.status === 200, status: res.status };
-    },
-  };
-}
+/**
+ * One target at one level: a warm-up (untimed, also measuring how long a walk is and how fast saves
+ * go), then for the app enough diagnoses started for the timed part, then the timed closed loop.
+ */
+async function runLevel(target, clients) {
+  const isApp = target === 'app save';
+  const stats = { diagnoses: 0, startedInLoop: 0, setupErrors: 0, setupSample: undefined };
+  // The warm-up starts its diagnoses as it goes; those are not the timed part's.
+  const warmStats = { ...stats };
 
-/** Runs every client in a closed loop for `seconds` after a warm-up; bounded in time and in count. */
-async function level(clients, seconds) {
-  const warmUntil = performance.now() + WARMUP_SECONDS * 1000;
+  const warmStarted = performance.now();
+  const warmUntil = warmStarted + WARMUP_SECONDS * 1000;
+  let warmSaves = 0;
+  let warmFindings = 0;
   await Promise.all(
     clients.map(async (c) => {
-      while (performance.now() < warmUntil) await c.step();
+      while (performance.now() < warmUntil && warmSaves < MAX_REQUESTS_PER_LEVEL) {
+        if (isApp && !(await ensureDiagnosis(c, warmUntil, warmStats))) break;
+        const r = await c.save();
+        warmSaves++;
+        if (r.finished) warmFindings++;
+      }
     }),
   );
+
+  if (isApp) {
+    // Start, untimed, the diagnoses the timed part will need (with a margin), so that it times saves only.
+    const warmSeconds = (performance.now() - warmStarted) / 1000;
+    const savesPerWalk = warmFindings ? warmSaves / warmFindings : 10;
+    const perClient = Math.ceil(((warmSaves / warmSeconds / clients.length) * SECONDS * 1.3) / savesPerWalk) + 1;
+    const cap = Math.floor(MAX_DIAGNOSES_PER_LEVEL / clients.length);
+    const deadline = performance.now() + SETUP_DEADLINE_MS;
+    await Promise.all(
+      clients.map(async (c) => {
+        while (c.ready.length < Math.min(perClient, cap) && performance.now() < deadline) {
+          try {
+            c.ready.push(await c.startDiagnosis());
+            stats.diagnoses++;
+          } catch (error) {
+            stats.setupErrors++;
+            stats.setupSample ??= error.message;
+            await sleep(250);
+          }
+        }
+      }),
+    );
+    stats.prepared = clients.reduce((a, c) => a + c.ready.length, 0);
+  }
+
   const latencies = [];
-  const statuses = {};
+  const failures = {};
   let errors = 0;
+  let findings = 0;
   const started = performance.now();
-  const until = started + seconds * 1000;
+  const until = started + SECONDS * 1000;
   await Promise.all(
     clients.map(async (c) => {
       while (performance.now() < until && latencies.length < MAX_REQUESTS_PER_LEVEL) {
-        const r = await c.step();
+        if (isApp && !(await ensureDiagnosis(c, until, stats))) break;
+        const r = await c.save();
         latencies.push(r.ms);
+        if (r.finished) findings++;
         if (!r.ok) {
           errors++;
-          statuses[r.status] = (statuses[r.status] ?? 0) + 1;
+          failures[r.status] ??= { count: 0, sample: r.text.replace(/\s+/g, ' ').slice(0, 160) };
+          failures[r.status].count++;
         }
       }
     }),
@@ -177,123 +343,225 @@ async function level(clients, seconds) {
   const elapsed = (performance.now() - started) / 1000;
   latencies.sort((a, b) => a - b);
   return {
+    target,
+    clients: clients.length,
     requests: latencies.length,
     errors,
-    statuses,
+    failures,
+    findings,
+    seconds: elapsed,
     p50: percentile(latencies, 50),
     p95: percentile(latencies, 95),
     p99: percentile(latencies, 99),
     rps: latencies.length / elapsed,
+    capped: latencies.length >= MAX_REQUESTS_PER_LEVEL,
+    ...(isApp ? { setup: stats } : {}),
   };
 }
 
 const fmt = (v, d = 1) => (Number.isFinite(v) ? v.toFixed(d) : '—');
+const mark = (met) => (met ? 'met' : 'MISSED');
+
+function report(rows) {
+  const widths = [10, 8, 9, 7, 9, 9, 9, 9];
+  const line = (cols) => cols.map((c, i) => (i === 0 ? String(c).padEnd(widths[i]) : String(c).padStart(widths[i]))).join(' ');
+  const out = [];
+  out.push('');
+  out.push(
+    `Save path against the floor: ${SECONDS} s a level after ${WARMUP_SECONDS} s of warm-up, times in ms, ` +
+      `DATABASE_POOL_MAX=${POOL_MAX} for both, ${os.cpus().length} cores shared by client, servers and PostgreSQL`,
+  );
+  out.push('');
+  out.push(line(['target', 'clients', 'requests', 'errors', 'p50', 'p95', 'p99', 'req/s']));
+  for (const { save, floor } of rows) {
+    for (const r of [save, floor]) {
+      out.push(line([r.target, r.clients, r.requests, r.errors, fmt(r.p50, 2), fmt(r.p95, 2), fmt(r.p99, 2), fmt(r.rps, 0)]));
+    }
+  }
+  out.push('');
+  out.push(`Ratios (app save / floor) and the issue's targets: p95 ≤ ${TARGETS.p95}×, throughput ≥ ${TARGETS.rps}×, 0 errors`);
+  out.push('');
+  const rline = (cols) => cols.map((c, i) => String(c).padStart([8, 11, 8, 13, 8, 8][i])).join(' ');
+  out.push(rline(['clients', 'p95 ratio', '', 'req/s ratio', '', 'errors']));
+  const verdicts = rows.map(({ save, floor }) => {
+    const p95 = save.p95 / floor.p95;
+    const rps = save.rps / floor.rps;
+    const v = {
+      clients: save.clients,
+      p95,
+      rps,
+      p95Met: p95 <= TARGETS.p95,
+      rpsMet: rps >= TARGETS.rps,
+      errorsMet: save.errors === 0 && floor.errors === 0 && save.requests > 0,
+    };
+    out.push(rline([v.clients, `${fmt(p95, 2)}×`, mark(v.p95Met), `${fmt(rps, 2)}×`, mark(v.rpsMet), mark(v.errorsMet)]));
+    return v;
+  });
+  const top = verdicts.find((v) => v.clients === 32);
+  const topRow = rows.find((r) => r.save.clients === 32);
+  if (top) {
+    out.push('');
+    out.push('Targets at 32 clients (issue 6)');
+    out.push(`  ${mark(top.p95Met).padEnd(6)}  save p95 ≤ ${TARGETS.p95}× the floor's p95          (${fmt(top.p95, 2)}×)`);
+    out.push(`  ${mark(top.rpsMet).padEnd(6)}  save throughput ≥ ${TARGETS.rps}× the floor's    (${fmt(top.rps, 2)}×)`);
+    out.push(
+      `  ${mark(top.errorsMet).padEnd(6)}  0 errors                                (${topRow.save.errors} app, ${topRow.floor.errors} floor)`,
+    );
+  }
+
+  const notes = [];
+  for (const { save, floor } of rows) {
+    for (const r of [save, floor]) {
+      for (const [status, { count, sample }] of Object.entries(r.failures)) {
+        notes.push(
+          `${r.target} at ${r.clients}: ${count} × ${status === '0' ? 'no answer (network error or timeout)' : `HTTP ${status}`}: ${sample}`,
+        );
+      }
+      if (r.capped) notes.push(`${r.target} at ${r.clients}: stopped at the cap of ${MAX_REQUESTS_PER_LEVEL} requests`);
+    }
+    const s = save.setup;
+    if (s.setupErrors)
+      notes.push(
+        `app save at ${save.clients}: ${s.setupErrors} failed attempts to open a call or start a diagnosis (untimed): ${s.setupSample}`,
+      );
+    if (s.startedInLoop)
+      notes.push(
+        `app save at ${save.clients}: the ${s.prepared} diagnoses started beforehand ran out; ${s.startedInLoop} more were started during the timed part`,
+      );
+  }
+  if (notes.length) {
+    out.push('');
+    out.push('Notes');
+    for (const note of notes) out.push(`  ${note}`);
+  }
+  out.push('');
+  console.log(out.join('\n'));
+  return verdicts;
+}
 
 async function main() {
   ensureDependencies();
   const bin = ensurePostgres();
   const tmp = mkdtempSync(path.join(os.tmpdir(), 'proving-ground-bench-'));
+  const outDir = path.join(root, 'bench', 'out');
+  mkdirSync(outDir, { recursive: true });
   const pgPort = await freePort();
-  const cluster = await startCluster({ bin, dir: tmp, port: pgPort, throwaway: true });
   const children = [];
+  const logs = [];
+  let cluster;
+  let cleaned = false;
   const cleanup = () => {
-    for (const child of children) if (child.exitCode === null) child.kill('SIGTERM');
-    cluster.stop();
+    if (cleaned) return;
+    cleaned = true;
+    for (const child of children) if (child.exitCode === null && child.signalCode === null) child.kill('SIGTERM');
+    for (const fd of logs) closeSync(fd);
+    cluster?.stop();
     rmSync(tmp, { recursive: true, force: true });
   };
-  process.on('SIGINT', () => {
-    cleanup();
-    process.exit(130);
-  });
+  for (const signal of ['SIGINT', 'SIGTERM']) {
+    process.on(signal, () => {
+      console.error(`\n${signal}: stopping the servers and removing the bench cluster…`);
+      cleanup();
+      process.exit(130);
+    });
+  }
   try {
+    cluster = await startCluster({ bin, dir: tmp, port: pgPort, throwaway: true });
     const databaseUrl = ensureDatabase(bin, pgPort, 'proving_ground_bench');
-    psql(
-      bin,
-      pgPort,
-      'CREATE TABLE IF NOT EXISTS bench_floor (id bigserial PRIMARY KEY, body jsonb, at timestamptz NOT NULL DEFAULT now())',
-      'proving_ground_bench',
-    );
-    psql(bin, pgPort, 'GRANT ALL ON bench_floor, bench_floor_id_seq TO proving_ground', 'proving_ground_bench');
     const env = {
       ...process.env,
       DATABASE_URL: databaseUrl,
+      DATABASE_POOL_MAX: POOL_MAX,
       SESSION_SECRET: 'bench-secret-bench-secret-bench-secret-bench',
       SEED_DEMO: 'true',
       NEXT_TELEMETRY_DISABLED: '1',
-      NODE_ENV: 'production',
     };
     log('Migrating and seeding the bench database…');
     knex(['migrate:latest'], env);
     knex(['seed:run'], env);
-    log('Building the app (.next-bench) and the floor (bench/floor)…');
-    run(path.join(root, 'node_modules', '.bin', 'next'), ['build'], { env: { ...env, NEXT_DIST_DIR: '.next-bench' } });
-    run(path.join(root, 'node_modules', '.bin', 'next'), ['build', 'bench/floor'], { env });
+
+    const nextBin = path.join(root, 'node_modules', '.bin', 'next');
+    log('Building the app into .next-bench…');
+    run(nextBin, ['build'], { env: { ...env, NEXT_DIST_DIR: '.next-bench' } });
+    log('Building the floor (bench/floor, into bench/floor/.next-floor)…');
+    run(nextBin, ['build', 'bench/floor'], { env });
+
     const [appPort, floorPort] = [await freePort(), await freePort()];
     const app = `http://127.0.0.1:${appPort}`;
     const floor = `http://127.0.0.1:${floorPort}`;
-    const nextBin = path.join(root, 'node_modules', '.bin', 'next');
+    // The servers' own output goes to files, so that a flood of errors under load does not bury the table.
+    const appLog = openSync(path.join(outDir, 'app.log'), 'w');
+    const floorLog = openSync(path.join(outDir, 'floor.log'), 'w');
+    logs.push(appLog, floorLog);
+    const production = { ...env, NODE_ENV: 'production' };
     children.push(
       spawnChild(nextBin, ['start', '-H', '127.0.0.1', '-p', String(appPort)], {
-        env: serverEnv({ ...env, NEXT_DIST_DIR: '.next-bench', APP_URL: app }),
-        stdio: ['ignore', 'ignore', 'inherit'],
+        env: serverEnv({ ...production, NEXT_DIST_DIR: '.next-bench', APP_URL: app }),
+        stdio: ['ignore', appLog, appLog],
       }),
       spawnChild(nextBin, ['start', 'bench/floor', '-H', '127.0.0.1', '-p', String(floorPort)], {
-        env,
-        stdio: ['ignore', 'ignore', 'inherit'],
+        env: production,
+        stdio: ['ignore', floorLog, floorLog],
       }),
     );
+    for (const child of children) {
+      child.on('exit', (code, signal) => {
+        if (!cleaned)
+          console.error(`A server stopped during the bench (${code ?? signal}); see bench/out/app.log and bench/out/floor.log.`);
+      });
+    }
     await waitForHttp(`${app}/api/health`);
     await waitForHttp(`${floor}/api/floor`);
+    log(`App at ${app}, floor at ${floor}; server output in bench/out/.`);
 
-    const trees = await (async () => {
-      const c = await request(app, 'POST', '/api/auth/sign-in', { email: 'technician@demo.test', password: 'demo-password' });
-      const cookie = c.setCookie.map((x) => x.split(';')[0]).join('; ');
-      return (await request(app, 'GET', '/api/trees', undefined, cookie)).json;
-    })();
-    const treeVersionId = trees.find((t) => t.published).published.id;
+    const first = await request(app, 'POST', '/api/auth/sign-in', { email: 'technician@demo.test', password: 'demo-password' });
+    must(first, 200, 'Signing in as the demo technician');
+    const cookie = first.setCookie.map((c) => c.split(';')[0]).join('; ');
+    const trees = must(await request(app, 'GET', '/api/trees', undefined, cookie), 200, 'Listing the trees');
+    const treeVersionId = trees.find((t) => t.published)?.published.id;
+    if (!treeVersionId) throw new Error('The demo has no published tree version to diagnose with.');
+
+    log(`Setting up ${Math.max(...LEVELS)} technician clients (session, site, unit)…`);
+    const appClients = [];
+    for (let i = 0; i < Math.max(...LEVELS); i += 8) {
+      appClients.push(
+        ...(await Promise.all(
+          Array.from({ length: Math.min(8, Math.max(...LEVELS) - i) }, (_, k) => createAppClient(app, treeVersionId, i + k + 1)),
+        )),
+      );
+    }
 
     const rows = [];
     for (const n of LEVELS) {
-      log(`${n} client(s): app saves…`);
-      const appClients = await Promise.all(Array.from({ length: n }, (_, i) => appClient(app, treeVersionId, i + n * 100)));
-      const save = await level(appClients, SECONDS);
-      log(`${n} client(s): floor…`);
-      const bare = await level(
-        Array.from({ length: n }, () => floorClient(floor)),
-        SECONDS,
+      log(`${n} client${n === 1 ? '' : 's'}: app saves…`);
+      const save = await runLevel('app save', appClients.slice(0, n));
+      log(`${n} client${n === 1 ? '' : 's'}: floor…`);
+      const bare = await runLevel(
+        'floor',
+        Array.from({ length: n }, () => createFloorClient(floor)),
       );
-      rows.push({ n, save, bare });
+      rows.push({ save, floor: bare });
     }
-
-    const line = (cols) => cols.map((c, i) => String(c).padStart(i < 2 ? 10 : 9)).join(' ');
-    console.log(`\nSave path against the floor (${SECONDS} s a level after ${WARMUP_SECONDS} s of warm-up; times in ms)\n`);
-    console.log(line(['target', 'clients', 'requests', 'errors', 'p50', 'p95', 'p99', 'req/s']));
-    for (const { n, save, bare } of rows) {
-      console.log(
-        line(['app save', n, save.requests, save.errors, fmt(save.p50, 2), fmt(save.p95, 2), fmt(save.p99, 2), fmt(save.rps, 0)]),
-      );
-      console.log(line(['floor', n, bare.requests, bare.errors, fmt(bare.p50, 2), fmt(bare.p95, 2), fmt(bare.p99, 2), fmt(bare.rps, 0)]));
-      if (save.errors) console.log(`           app errors by status: ${JSON.stringify(save.statuses)}`);
-    }
-    console.log('\nRatios (app save / floor)\n');
-    console.log(line(['clients', 'p95', 'req/s']).slice(11));
-    for (const { n, save, bare } of rows)
-      console.log(line(['', n, `${fmt(save.p95 / bare.p95, 2)}×`, `${fmt(save.rps / bare.rps, 2)}×`]).slice(11));
-    const top = rows.find((r) => r.n === 32);
-    const targets = [
-      ['save p95 ≤ 2× the floor’s p95 at 32 clients', top.save.p95 <= 2 * top.bare.p95, `${fmt(top.save.p95 / top.bare.p95, 2)}×`],
-      ['throughput ≥ 0.5× the floor’s at 32 clients', top.save.rps >= 0.5 * top.bare.rps, `${fmt(top.save.rps / top.bare.rps, 2)}×`],
-      ['0 errors at every level', rows.every((r) => r.save.errors === 0), `${rows.reduce((a, r) => a + r.save.errors, 0)} errors`],
-    ];
-    console.log('\nTargets (issue: hold up under load)\n');
-    for (const [name, met, value] of targets) console.log(`  ${met ? 'met   ' : 'MISSED'}  ${name}  (${value})`);
-    console.log('');
+    const verdicts = report(rows);
+    const file = path.join(outDir, 'last.json');
+    writeFileSync(
+      file,
+      JSON.stringify(
+        { at: new Date().toISOString(), seconds: SECONDS, warmup: WARMUP_SECONDS, poolMax: POOL_MAX, rows, verdicts },
+        null,
+        2,
+      ),
+    );
+    log(`Figures written to ${path.relative(root, file)}.`);
   } finally {
     cleanup();
   }
 }
 
-main().catch((error) => {
-  console.error(error);
-  process.exit(1);
-});
+main().then(
+  () => process.exit(0),
+  (error) => {
+    console.error(`The bench could not run: ${error.stack ?? error}`);
+    process.exit(1);
+  },
+);
