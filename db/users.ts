@@ -1,5 +1,7 @@
 import 'server-only';
+import type { Knex } from 'knex';
 import { db } from '@/db/knex';
+import { revokeUserSessions } from '@/db/sessions';
 import { AppError, notFound } from '@/lib/errors';
 import type { Role } from '@/lib/roles';
 
@@ -10,7 +12,6 @@ export interface User {
   name: string;
   role: Role;
   active: boolean;
-  sessionVersion: number;
   createdAt: Date;
 }
 
@@ -25,29 +26,12 @@ interface UserRow {
   name: string;
   role: Role;
   active: boolean;
-  session_version: number;
   created_at: Date;
   password_hash?: string;
   company_name?: string;
 }
 
-const COLUMNS = [
-  'users.id',
-  'users.company_id',
-  'users.email',
-  'users.name',
-  'users.role',
-  'users.active',
-  'users.session_version',
-  'users.created_at',
-];
-
-/** The user columns a session check reads (with `companies.name as company_name`). */
-export const SESSION_USER_COLUMNS: readonly string[] = COLUMNS;
-
-export function toSessionUser(row: UserRow): UserWithCompany {
-  return { ...toUser(row), companyName: row.company_name! };
-}
+const COLUMNS = ['users.id', 'users.company_id', 'users.email', 'users.name', 'users.role', 'users.active', 'users.created_at'];
 
 function toUser(row: UserRow): User {
   return {
@@ -57,7 +41,6 @@ function toUser(row: UserRow): User {
     name: row.name,
     role: row.role,
     active: row.active,
-    sessionVersion: row.session_version,
     createdAt: row.created_at,
   };
 }
@@ -118,27 +101,36 @@ export async function createUser(input: {
   }
 }
 
-export async function updateUser({
-  companyId,
-  id,
-  patch,
-}: {
-  companyId: string;
-  id: string;
-  patch: { name?: string; role?: Role; active?: boolean; revokeSessions?: boolean };
-}): Promise<User> {
-  await getUser({ companyId, id });
-  const changes: Record<string, unknown> = { updated_at: db.fn.now() };
-  if (patch.name !== undefined) changes.name = patch.name;
-  if (patch.role !== undefined) changes.role = patch.role;
-  if (patch.active !== undefined) changes.active = patch.active;
-  // A role change, a deactivation or an explicit revoke ends every open session of the user.
-  if (patch.revokeSessions || patch.active === false || patch.role !== undefined) {
-    changes.session_version = db.raw('session_version + 1');
-  }
-  const [row] = await db('users')
-    .where({ id, company_id: companyId })
-    .update(changes)
-    .returning(COLUMNS.map((c) => c.replace('users.', '')));
-  return toUser(row as UserRow);
+/**
+ * An admin's change to a user. A role change, a deactivation or `revokeSessions` ends every open
+ * session of the user in the same transaction, so no request can see the new row with an old session.
+ */
+export async function updateUser(
+  {
+    companyId,
+    id,
+    patch,
+  }: {
+    companyId: string;
+    id: string;
+    patch: { name?: string; role?: Role; active?: boolean; revokeSessions?: boolean };
+  },
+  trx: Knex = db,
+): Promise<User> {
+  if (!isUuid(id)) throw notFound('That user');
+  return trx.transaction(async (t) => {
+    const current: UserRow | undefined = await t('users').where({ id, company_id: companyId }).forUpdate().first(COLUMNS);
+    if (!current) throw notFound('That user');
+    const changes: Record<string, unknown> = { updated_at: t.fn.now() };
+    if (patch.name !== undefined) changes.name = patch.name;
+    if (patch.role !== undefined) changes.role = patch.role;
+    if (patch.active !== undefined) changes.active = patch.active;
+    const [row] = await t('users')
+      .where({ id, company_id: companyId })
+      .update(changes)
+      .returning(COLUMNS.map((c) => c.replace('users.', '')));
+    const roleChanged = patch.role !== undefined && patch.role !== current.role;
+    if (patch.revokeSessions || patch.active === false || roleChanged) await revokeUserSessions({ userId: id }, t);
+    return toUser(row as UserRow);
+  });
 }

@@ -30,13 +30,9 @@ export async function signIn({
   }
   await deleteOldSessions();
   const session = await getSession();
-  session.sid = await createSession({
-    userId: user.id,
-    companyId: user.companyId,
-    userVersion: user.sessionVersion,
-    userAgent,
-    ttlSeconds: SESSION_TTL_SECONDS,
-  });
+  // A sign-in over a session that is still open (another account on a shared tablet) ends that one.
+  if (session.sid) await revokeSession({ sessionId: session.sid });
+  session.sid = await createSession({ userId: user.id, companyId: user.companyId, userAgent, ttlSeconds: SESSION_TTL_SECONDS });
   await session.save();
   const { passwordHash: _omit, ...safe } = user;
   return safe;

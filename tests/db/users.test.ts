@@ -41,7 +41,7 @@ afterAll(async () => {
 });
 
 describe('createUser', () => {
-  it('stores the user with a lower-cased e-mail, active, at session version 1', async () => {
+  it('stores the user with a lower-cased e-mail, active', async () => {
     const user = await createUser({
       companyId: companyA,
       email: `Mixed.Case-${tag}@Users-Test.TEST`,
@@ -55,7 +55,6 @@ describe('createUser', () => {
       name: 'Mixed Case',
       role: 'lead',
       active: true,
-      sessionVersion: 1,
     });
     expect(user.id).toMatch(/^[0-9a-f-]{36}$/);
     expect(user.createdAt).toBeInstanceOf(Date);
@@ -134,36 +133,29 @@ describe('getUserForSignIn', () => {
 });
 
 describe('updateUser', () => {
-  it('changes the name without ending sessions', async () => {
+  // Which changes end the user's sessions is tested in tests/db/sessions.test.ts.
+  it('changes the name', async () => {
     const user = await newUser(companyA, 'rename');
     const changed = await updateUser({ companyId: companyA, id: user.id, patch: { name: 'Renamed' } });
-    expect(changed).toMatchObject({ name: 'Renamed', sessionVersion: 1, active: true, role: 'technician' });
+    expect(changed).toMatchObject({ name: 'Renamed', active: true, role: 'technician' });
   });
 
-  it('bumps the session version on a role change', async () => {
+  it('changes the role', async () => {
     const user = await newUser(companyA, 'role');
     const changed = await updateUser({ companyId: companyA, id: user.id, patch: { role: 'lead' } });
-    expect(changed).toMatchObject({ role: 'lead', sessionVersion: 2 });
+    expect(changed).toMatchObject({ role: 'lead' });
   });
 
-  it('bumps the session version on deactivation', async () => {
+  it('deactivates and reactivates', async () => {
     const user = await newUser(companyA, 'deactivate');
-    const changed = await updateUser({ companyId: companyA, id: user.id, patch: { active: false } });
-    expect(changed).toMatchObject({ active: false, sessionVersion: 2 });
-    // Reactivating does not need to end sessions again.
-    expect(await updateUser({ companyId: companyA, id: user.id, patch: { active: true } })).toMatchObject({
-      active: true,
-      sessionVersion: 2,
-    });
+    expect(await updateUser({ companyId: companyA, id: user.id, patch: { active: false } })).toMatchObject({ active: false });
+    expect(await updateUser({ companyId: companyA, id: user.id, patch: { active: true } })).toMatchObject({ active: true });
   });
 
-  it('bumps the session version on an explicit revoke, each time', async () => {
+  it('accepts an explicit revoke alone and leaves the row as it was', async () => {
     const user = await newUser(companyA, 'revoke');
-    await updateUser({ companyId: companyA, id: user.id, patch: { revokeSessions: true } });
     const again = await updateUser({ companyId: companyA, id: user.id, patch: { revokeSessions: true } });
-    expect(again.sessionVersion).toBe(3);
-    const row = await db('users').where({ id: user.id }).first('session_version');
-    expect(row.session_version).toBe(3);
+    expect(again).toEqual(user);
   });
 
   it("refuses to change another company's user and leaves the row as it was", async () => {
