@@ -6,6 +6,7 @@ import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
 import { Field, FormMessage, TextInput } from '@/components/ui/field';
+import { NO_ANSWER, NO_CONNECTION, postJson, waitInWords, type PostResult } from '@/lib/http';
 import { signInSchema } from '@/lib/validations/auth';
 
 type Input = z.input<typeof signInSchema>;
@@ -21,22 +22,13 @@ export function SignInForm() {
 
   async function onSubmit(values: Output) {
     setMessage(null);
-    try {
-      const res = await fetch('/api/auth/sign-in', {
-        method: 'POST',
-        headers: { 'content-type': 'application/json' },
-        body: JSON.stringify(values),
-      });
-      if (res.ok) {
-        router.replace('/');
-        router.refresh();
-        return;
-      }
-      const body = await res.json().catch(() => null);
-      setMessage(body?.error?.message ?? 'Sign-in failed. Try again.');
-    } catch {
-      setMessage('The server could not be reached. Check the connection and try again.');
+    const result = await postJson('/api/auth/sign-in', values);
+    if (result.kind === 'ok') {
+      router.replace('/');
+      router.refresh();
+      return;
     }
+    setMessage(signInMessage(result));
   }
 
   return (
@@ -53,4 +45,15 @@ export function SignInForm() {
       </button>
     </form>
   );
+}
+
+/** What the form says when the sign-in did not go through. */
+function signInMessage(result: Exclude<PostResult, { kind: 'ok' }>): string {
+  if (result.kind === 'timeout') return NO_ANSWER;
+  if (result.kind === 'offline') return NO_CONNECTION;
+  if (result.status === 503) {
+    const busy = result.message ?? 'The server is not available right now. Nothing was changed.';
+    return result.retryAfterSeconds !== undefined ? `${busy} Try again in ${waitInWords(result.retryAfterSeconds)}.` : busy;
+  }
+  return result.message ?? `Sign-in failed (the server answered ${result.status}). Try again.`;
 }
