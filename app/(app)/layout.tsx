@@ -1,6 +1,7 @@
 import Link from 'next/link';
 import { AppNav } from '@/components/shell/app-nav';
 import { SignOutButton } from '@/components/shell/sign-out-button';
+import { SignOutEverywhere } from '@/components/shell/sign-out-everywhere';
 import { Brand } from '@/components/ui/brand';
 import { ThemeToggle } from '@/components/ui/theme-toggle';
 import { navFor, ROLE_LABELS } from '@/lib/roles';
@@ -25,6 +26,7 @@ export default async function AppLayout({ children }: { children: React.ReactNod
             <ThemeToggle />
             <SignOutButton />
           </div>
+          <SignOutEverywhere className="-ml-1" />
         </div>
       </aside>
       <header className="no-print sticky top-0 z-20 border-b border-line bg-raised/95 backdrop-blur lg:hidden">
@@ -48,6 +50,13 @@ export default async function AppLayout({ children }: { children: React.ReactNod
       <main id="main" className="mx-auto w-full max-w-6xl flex-1 px-4 py-6 sm:px-6 lg:px-10">
         {children}
       </main>
+      {/* On a phone the header has no room for it; the account line closes every page instead. */}
+      <footer className="no-print border-t border-line bg-raised px-4 py-3 lg:hidden">
+        <div className="mx-auto flex max-w-6xl flex-wrap items-center justify-between gap-2 text-sm">
+          <UserBadge name={user.name} role={ROLE_LABELS[user.role]} company={user.companyName} />
+          <SignOutEverywhere />
+        </div>
+      </footer>
     </div>
   );
 }

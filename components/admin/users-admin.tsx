@@ -139,7 +139,7 @@ export function UsersAdmin({ users, currentUserId, createUser, updateUser }: Pro
                           disabled={busy}
                           onClick={() => change(user, { revokeSessions: true }, `${user.name}'s sessions were ended.`)}
                         >
-                          End sessions<span className="sr-only"> of {user.name}</span>
+                          Sign out everywhere<span className="sr-only"> for {user.name}</span>
                         </button>
                       )}
                     </div>
