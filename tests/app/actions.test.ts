@@ -7,6 +7,7 @@ import fc from 'fast-check';
 import { db } from '@/db/knex';
 import type { CurrentUser } from '@/lib/server/guard';
 import { reachOf, type OperationName } from '@/lib/policy';
+import type { ActionResult } from '@/lib/validations/api';
 
 const state: { user: CurrentUser | null; headers: Headers } = { user: null, headers: new Headers() };
 
@@ -26,7 +27,10 @@ const admin = await import('@/app/(app)/admin/actions');
 const calls = await import('@/app/(app)/calls/actions');
 const diagnoses = await import('@/app/(app)/calls/[id]/diagnoses/actions');
 
-const ACTIONS: [string, (raw: unknown) => Promise<any>, OperationName][] = [
+/** What the tests read of an ActionResult, whichever way it went. */
+type Outcome = { ok: boolean; code?: string; message?: string };
+
+const ACTIONS: [string, (raw: unknown) => Promise<ActionResult<unknown> & Outcome>, OperationName][] = [
   ['createUserAction', admin.createUserAction, 'users.create'],
   ['updateUserAction', admin.updateUserAction, 'users.update'],
   ['updateCompanyAction', admin.updateCompanyAction, 'company.update'],
