@@ -5,9 +5,9 @@
 // each answer to the step the last save named) and each floor client posts to the floor, in a closed
 // loop for a fixed time after a warm-up. Only those POSTs are timed. Prints p50/p95/p99 and requests/s
 // for both, the ratios, and the issue's targets. Exit code 0 whenever the bench ran, met or not.
-// Flags: --quick (3 s a level). BENCH_SECONDS sets the seconds a level; DATABASE_POOL_MAX goes to both servers.
+// Flags: --quick (3 s a level), --no-build (reuse the last builds, if any). BENCH_SECONDS sets the seconds a level; DATABASE_POOL_MAX goes to both servers.
 import { randomUUID } from 'node:crypto';
-import { mkdirSync, mkdtempSync, openSync, closeSync, rmSync, writeFileSync } from 'node:fs';
+import { closeSync, existsSync, mkdirSync, mkdtempSync, openSync, rmSync, writeFileSync } from 'node:fs';
 import http from 'node:http';
 import os from 'node:os';
 import path from 'node:path';
@@ -27,6 +27,7 @@ import {
 } from '../scripts/lib.mjs';
 
 const quick = process.argv.includes('--quick');
+const reuseBuilds = process.argv.includes('--no-build');
 const SECONDS = Number(process.env.BENCH_SECONDS ?? (quick ? 3 : 8));
 const WARMUP_SECONDS = quick ? 1 : 2;
 const LEVELS = [1, 8, 32];
@@ -44,8 +45,10 @@ if (!Number.isFinite(SECONDS) || SECONDS <= 0) {
   process.exit(2);
 }
 
-// The same client code for both targets: node:http with one keep-alive agent, no retries.
-const agent = new http.Agent({ keepAlive: true, maxSockets: Infinity });
+// The same client code for both targets: node:http with one keep-alive agent, no retries. Nagle is
+// off and each request goes out in one write (headers and body together): a body written after the
+// headers would otherwise wait on the server's delayed ACK, some 40 ms on loopback, and measure that.
+const agent = new http.Agent({ keepAlive: true, maxSockets: Infinity, noDelay: true });
 
 /** One request; resolves (never rejects) with the status (0 for a network error or a timeout). */
 function request(base, method, urlPath, body, cookie) {
@@ -90,8 +93,8 @@ function request(base, method, urlPath, body, cookie) {
       req.destroy(new Error(`no answer within ${REQUEST_TIMEOUT_MS / 1000} s`));
     }, REQUEST_TIMEOUT_MS);
     req.on('error', (error) => done({ status: 0, json: null, text: error.message, setCookie: [] }));
-    if (payload) req.write(payload);
-    req.end();
+    req.on('socket', (socket) => socket.setNoDelay(true));
+    req.end(payload);
   });
 }
 
@@ -118,10 +121,18 @@ function valueInBand({ from, to }) {
   return 0;
 }
 
-/** The answer to `step`, in the shape the answers route takes: a band, a choice or a confirmation picked by `random`. */
-function answerFor(step, random) {
+/**
+ * The answer to `step`, in the shape the answers route takes: a band, a choice or a confirmation
+ * picked by `random`. Four times in five the pick is among the options that lead on to another step
+ * rather than straight to a finding (when there are such), so that walks go deep as well as short.
+ */
+function answerFor(step, random, findingIds) {
   const clientId = randomUUID();
-  const pick = (list) => list[Math.floor(random() * list.length)];
+  const pick = (options) => {
+    const onward = options.filter((o) => !findingIds.has(o.outcome));
+    const from = onward.length && random() < 0.8 ? onward : options;
+    return from[Math.floor(random() * from.length)];
+  };
   if (step.kind === 'measure') {
     const value = valueInBand(pick(step.bands));
     return { clientId, stepId: step.id, text: String(Number(value.toFixed(4))), unit: step.unit };
@@ -131,12 +142,16 @@ function answerFor(step, random) {
   throw new Error(`the app asked for an answer to a ${step.kind} step (${step.id})`);
 }
 
-/** Retries `attempt` (which returns a value or throws) until it succeeds or the deadline passes. */
+/** An answer other than the one expected: the app's doing, so worth another try (a bug of the bench is not). */
+class Refused extends Error {}
+
+/** Retries `attempt` while the app refuses or does not answer, until it succeeds or the deadline passes. */
 async function untilDeadline(attempt, deadline, onFailure) {
   for (;;) {
     try {
       return await attempt();
     } catch (error) {
+      if (!(error instanceof Refused)) throw error;
       onFailure?.(error);
       if (performance.now() + 250 >= deadline) throw error;
       await sleep(250);
@@ -145,12 +160,13 @@ async function untilDeadline(attempt, deadline, onFailure) {
 }
 
 function must(res, status, what) {
-  if (res.status !== status) throw new Error(`${what} answered ${res.status || 'no answer'}: ${res.text.slice(0, 300)}`);
+  if (res.status !== status) throw new Refused(`${what} answered ${res.status || 'no answer'}: ${res.text.slice(0, 300)}`);
+  if (res.json === null) throw new Refused(`${what} answered ${status} without JSON: ${res.text.slice(0, 300)}`);
   return res.json;
 }
 
 /** A technician's client: its own session, site and unit, and diagnoses of calls on that unit. */
-async function createAppClient(base, treeVersionId, n) {
+async function createAppClient(base, tree, n) {
   const deadline = performance.now() + SETUP_DEADLINE_MS;
   const cookie = await untilDeadline(async () => {
     const res = await request(base, 'POST', '/api/auth/sign-in', { email: 'technician@demo.test', password: 'demo-password' });
@@ -199,7 +215,7 @@ async function createAppClient(base, treeVersionId, n) {
         'Opening a call',
       );
       const d = must(
-        await request(base, 'POST', `/api/calls/${call.id}/diagnoses`, { treeVersionId }, cookie),
+        await request(base, 'POST', `/api/calls/${call.id}/diagnoses`, { treeVersionId: tree.id }, cookie),
         201,
         'Starting a diagnosis',
       );
@@ -207,7 +223,7 @@ async function createAppClient(base, treeVersionId, n) {
     },
     /** One save, timed; the step it names is the next one answered. */
     async save() {
-      const body = answerFor(client.current.step, random);
+      const body = answerFor(client.current.step, random, tree.findingIds);
       const started = performance.now();
       const res = await request(base, 'POST', `/api/diagnoses/${client.current.id}/answers`, body, cookie);
       const ms = performance.now() - started;
@@ -265,8 +281,9 @@ async function ensureDiagnosis(client, deadline, stats) {
       },
     );
     return true;
-  } catch {
-    return false;
+  } catch (error) {
+    if (error instanceof Refused) return false;
+    throw error;
   }
 }
 
@@ -299,7 +316,8 @@ async function runLevel(target, clients) {
     // Start, untimed, the diagnoses the timed part will need (with a margin), so that it times saves only.
     const warmSeconds = (performance.now() - warmStarted) / 1000;
     const savesPerWalk = warmFindings ? warmSaves / warmFindings : 10;
-    const perClient = Math.ceil(((warmSaves / warmSeconds / clients.length) * SECONDS * 1.3) / savesPerWalk) + 1;
+    // Twice the estimate: the warm-up runs colder, and so slower, than the timed part.
+    const perClient = Math.ceil(((warmSaves / warmSeconds / clients.length) * SECONDS * 2) / savesPerWalk) + 2;
     const cap = Math.floor(MAX_DIAGNOSES_PER_LEVEL / clients.length);
     const deadline = performance.now() + SETUP_DEADLINE_MS;
     await Promise.all(
@@ -309,6 +327,7 @@ async function runLevel(target, clients) {
             c.ready.push(await c.startDiagnosis());
             stats.diagnoses++;
           } catch (error) {
+            if (!(error instanceof Refused)) throw error;
             stats.setupErrors++;
             stats.setupSample ??= error.message;
             await sleep(250);
@@ -419,14 +438,19 @@ function report(rows) {
       }
       if (r.capped) notes.push(`${r.target} at ${r.clients}: stopped at the cap of ${MAX_REQUESTS_PER_LEVEL} requests`);
     }
+    if (!save.requests) notes.push(`app save at ${save.clients}: no save was measured (no diagnosis could be started)`);
     const s = save.setup;
+    if (save.findings)
+      notes.push(
+        `app save at ${save.clients}: ${save.findings} walks reached their finding, ${fmt(save.requests / save.findings, 1)} saves a walk`,
+      );
     if (s.setupErrors)
       notes.push(
         `app save at ${save.clients}: ${s.setupErrors} failed attempts to open a call or start a diagnosis (untimed): ${s.setupSample}`,
       );
     if (s.startedInLoop)
       notes.push(
-        `app save at ${save.clients}: the ${s.prepared} diagnoses started beforehand ran out; ${s.startedInLoop} more were started during the timed part`,
+        `app save at ${save.clients}: the ${s.prepared} diagnoses started beforehand ran out; ${s.startedInLoop} more ${s.startedInLoop === 1 ? 'was' : 'were'} started during the timed part`,
       );
   }
   if (notes.length) {
@@ -481,10 +505,15 @@ async function main() {
     knex(['seed:run'], env);
 
     const nextBin = path.join(root, 'node_modules', '.bin', 'next');
-    log('Building the app into .next-bench…');
-    run(nextBin, ['build'], { env: { ...env, NEXT_DIST_DIR: '.next-bench' } });
-    log('Building the floor (bench/floor, into bench/floor/.next-floor)…');
-    run(nextBin, ['build', 'bench/floor'], { env });
+    const builds = [path.join(root, '.next-bench', 'BUILD_ID'), path.join(root, 'bench', 'floor', '.next-floor', 'BUILD_ID')];
+    if (reuseBuilds && builds.every((f) => existsSync(f))) {
+      log('Reusing the last builds (.next-bench, bench/floor/.next-floor): they may be older than the code.');
+    } else {
+      log('Building the app into .next-bench…');
+      run(nextBin, ['build'], { env: { ...env, NEXT_DIST_DIR: '.next-bench' } });
+      log('Building the floor (bench/floor, into bench/floor/.next-floor)…');
+      run(nextBin, ['build', 'bench/floor'], { env });
+    }
 
     const [appPort, floorPort] = [await freePort(), await freePort()];
     const app = `http://127.0.0.1:${appPort}`;
@@ -520,13 +549,20 @@ async function main() {
     const trees = must(await request(app, 'GET', '/api/trees', undefined, cookie), 200, 'Listing the trees');
     const treeVersionId = trees.find((t) => t.published)?.published.id;
     if (!treeVersionId) throw new Error('The demo has no published tree version to diagnose with.');
+    // Which steps are findings, read from the published graph (never a list of step ids kept here).
+    const graph = must(
+      await request(app, 'GET', `/api/tree-versions/${treeVersionId}`, undefined, cookie),
+      200,
+      'Reading the tree version',
+    ).graph;
+    const tree = { id: treeVersionId, findingIds: new Set(graph.steps.filter((s) => s.kind === 'finding').map((s) => s.id)) };
 
     log(`Setting up ${Math.max(...LEVELS)} technician clients (session, site, unit)…`);
     const appClients = [];
     for (let i = 0; i < Math.max(...LEVELS); i += 8) {
       appClients.push(
         ...(await Promise.all(
-          Array.from({ length: Math.min(8, Math.max(...LEVELS) - i) }, (_, k) => createAppClient(app, treeVersionId, i + k + 1)),
+          Array.from({ length: Math.min(8, Math.max(...LEVELS) - i) }, (_, k) => createAppClient(app, tree, i + k + 1)),
         )),
       );
     }
