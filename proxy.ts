@@ -3,15 +3,26 @@ import { NextResponse, type NextRequest } from 'next/server';
 // The edge of every request: methods and body sizes the app never takes are refused here, every
 // response gets the security headers, and a visitor without a session cookie is sent to sign in.
 // Redirects only otherwise: the real checks (the session row, the role, the rows a user reaches)
-// run in every operation and page (lib/server/operation.ts).
+// run in every operation and page (lib/server/operation.ts). No database and no lib/server here:
+// this runs before every request and must stay cheap.
 
-const METHODS = ['GET', 'HEAD', 'POST', 'PUT', 'PATCH', 'DELETE', 'OPTIONS'];
+const ALLOWED_METHODS = ['GET', 'HEAD', 'POST', 'PUT', 'PATCH', 'DELETE', 'OPTIONS'];
 const MAX_BODY_BYTES = 1024 * 1024;
+const BODYLESS = new Set(['GET', 'HEAD', 'OPTIONS']);
+
+/** 128 random bits, base64: a fresh nonce per request for the framework's scripts and our theme script. */
+function newNonce(): string {
+  const bytes = new Uint8Array(16);
+  crypto.getRandomValues(bytes);
+  return btoa(String.fromCharCode(...bytes));
+}
 
 /**
- * A fresh nonce per request for the framework's scripts and our one inline script (the theme).
- * Styles allow inline: React `style` attributes and the chart's SVG use them, and a style cannot
- * run code. `next dev` needs eval for its refresh runtime; a production build does not.
+ * Scripts run only with this request's nonce; 'strict-dynamic' lets them load the chunks they need
+ * (the framework adds script tags at run time). Styles allow inline: React `style={{}}` attributes
+ * and the chart's SVG (recharts) set inline styles, which nonces cannot cover, and a style cannot
+ * run code. `next dev` evaluates modules for its refresh runtime, so it needs 'unsafe-eval'; a
+ * production build does not get it.
  */
 function contentSecurityPolicy(nonce: string): string {
   const dev = process.env.NODE_ENV === 'development';
@@ -32,6 +43,7 @@ function contentSecurityPolicy(nonce: string): string {
 function secure(response: NextResponse, csp: string, api: boolean): NextResponse {
   response.headers.set('Content-Security-Policy', csp);
   response.headers.set('X-Content-Type-Options', 'nosniff');
+  // frame-ancestors for browsers that know CSP 2, this for the ones that do not.
   response.headers.set('X-Frame-Options', 'DENY');
   response.headers.set('Referrer-Policy', 'same-origin');
   if (api) response.headers.set('Cache-Control', 'no-store');
@@ -44,16 +56,25 @@ function refuse(status: number, code: string, message: string, csp: string, head
 }
 
 export function proxy(request: NextRequest) {
-  const nonce = btoa(crypto.randomUUID());
+  const nonce = newNonce();
   const csp = contentSecurityPolicy(nonce);
   const { pathname } = request.nextUrl;
   const api = pathname.startsWith('/api/');
 
-  if (!METHODS.includes(request.method)) {
-    return refuse(405, 'method_not_allowed', `${request.method} is not a method this app answers.`, csp, { Allow: METHODS.join(', ') });
+  if (!ALLOWED_METHODS.includes(request.method)) {
+    return refuse(405, 'method_not_allowed', `${request.method} is not a method this app answers.`, csp, {
+      Allow: ALLOWED_METHODS.join(', '),
+    });
   }
+  // Refused on the declared length, before anyone reads the body.
   if (Number(request.headers.get('content-length') ?? 0) > MAX_BODY_BYTES) {
     return refuse(413, 'payload_too_large', 'The request is too large: at most 1 MB.', csp);
+  }
+  // A page takes a body only as a server action, and browsers always send those with a length.
+  // Without one, the framework would read on and answer a body over its limit with a 500; the JSON
+  // routes count what they read themselves and answer 413 (lib/server/operation.ts).
+  if (!api && !BODYLESS.has(request.method) && request.headers.has('transfer-encoding') && !request.headers.has('content-length')) {
+    return refuse(411, 'length_required', 'A request to a page must say how long its body is (Content-Length).', csp);
   }
   if (!api && pathname !== '/sign-in' && !request.cookies.has('pg_session')) {
     const url = request.nextUrl.clone();
@@ -61,7 +82,8 @@ export function proxy(request: NextRequest) {
     url.search = '';
     return secure(NextResponse.redirect(url), csp, false);
   }
-  // The framework reads the nonce from the request's own CSP header and puts it on its scripts.
+  // The framework reads the nonce from the request's own CSP header and puts it on its scripts;
+  // the root layout reads x-nonce for the theme script.
   const headers = new Headers(request.headers);
   headers.set('x-nonce', nonce);
   headers.set('Content-Security-Policy', csp);
@@ -69,6 +91,7 @@ export function proxy(request: NextRequest) {
 }
 
 export const config = {
-  // Static build files carry their headers from next.config.ts; everything else passes here.
+  // The build's static files and the (switched off) image optimizer carry their headers from
+  // next.config.ts; everything else passes here.
   matcher: ['/((?!_next/static|_next/image).*)'],
 };

@@ -152,14 +152,10 @@ function rawRequest(
 
 describe('clean refusals at the edge', () => {
   it('answers 405 for methods the app never takes, and 413 for a body over 1 MB', async () => {
-    for (const method of ['TRACE', 'PROPFIND', 'MKCOL']) {
+    // TRACK and BREW are names Node's HTTP parser does not know: scripts/http-guard.cjs answers them.
+    for (const method of ['TRACE', 'PROPFIND', 'MKCOL', 'TRACK', 'BREW']) {
       const res = await rawRequest(method, '/api/calls');
       expect(res.status, method).toBe(405);
-    }
-    // Methods Node's HTTP parser does not know are refused by Node itself, before any app code.
-    for (const method of ['TRACK', 'BREW']) {
-      const res = await rawRequest(method, '/api/calls');
-      expect(res.status, method).toBe(400);
     }
     const tech = await signedIn(DEMO.technician);
     const big = Buffer.alloc(2 * 1024 * 1024, 'a');
