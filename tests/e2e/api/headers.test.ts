@@ -39,7 +39,12 @@ function raw(
       }
       resolve({ status: res.statusCode ?? 0, headers, text, json });
     };
-    const req = http.request(BASE_URL + url, { method, headers: options.headers }, (res) => {
+    // Node's client sends a DELETE or OPTIONS body without a length unless told one.
+    const headers = { ...options.headers };
+    if (options.body && !Object.keys(headers).some((k) => k.toLowerCase() === 'content-length'))
+      headers['content-length'] = String(options.body.length);
+    // A connection of its own: a refused request must not leave bytes for the next one to trip on.
+    const req = http.request(BASE_URL + url, { method, headers, agent: false }, (res) => {
       answered = true;
       let text = '';
       res.setEncoding('utf8');
