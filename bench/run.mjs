@@ -5,7 +5,8 @@
 // each answer to the step the last save named) and each floor client posts to the floor, in a closed
 // loop for a fixed time after a warm-up. Only those POSTs are timed. Prints p50/p95/p99 and requests/s
 // for both, the ratios, and the issue's targets. Exit code 0 whenever the bench ran, met or not.
-// Flags: --quick (3 s a level), --no-build (reuse the last builds, if any). BENCH_SECONDS sets the seconds a level; DATABASE_POOL_MAX goes to both servers.
+// Flags: --quick (3 s a level), --no-build (reuse the last builds, if any), --cpu-prof (the app
+// server writes V8 CPU profiles into bench/out/prof and the bench prints where its time went). BENCH_SECONDS sets the seconds a level; DATABASE_POOL_MAX goes to both servers.
 import { randomUUID } from 'node:crypto';
 import { closeSync, existsSync, mkdirSync, mkdtempSync, openSync, rmSync, writeFileSync } from 'node:fs';
 import http from 'node:http';
@@ -25,9 +26,11 @@ import {
   startCluster,
   waitForHttp,
 } from '../scripts/lib.mjs';
+import { summarize } from './profile.mjs';
 
 const quick = process.argv.includes('--quick');
 const reuseBuilds = process.argv.includes('--no-build');
+const cpuProf = process.argv.includes('--cpu-prof');
 const SECONDS = Number(process.env.BENCH_SECONDS ?? (quick ? 3 : 8));
 const WARMUP_SECONDS = quick ? 1 : 2;
 const LEVELS = [1, 8, 32];
@@ -469,11 +472,17 @@ async function main() {
   const tmp = mkdtempSync(path.join(os.tmpdir(), 'proving-ground-bench-'));
   const outDir = path.join(root, 'bench', 'out');
   mkdirSync(outDir, { recursive: true });
+  const profDir = path.join(outDir, 'prof');
+  if (cpuProf) {
+    rmSync(profDir, { recursive: true, force: true });
+    mkdirSync(profDir, { recursive: true });
+  }
   const pgPort = await freePort();
   const children = [];
   const logs = [];
   let cluster;
   let cleaned = false;
+  let stoppingForProfile = false;
   const cleanup = () => {
     if (cleaned) return;
     cleaned = true;
@@ -524,10 +533,22 @@ async function main() {
     logs.push(appLog, floorLog);
     const production = { ...env, NODE_ENV: 'production' };
     children.push(
-      spawnChild(nextBin, ['start', '-H', '127.0.0.1', '-p', String(appPort)], {
-        env: serverEnv({ ...production, NEXT_DIST_DIR: '.next-bench', APP_URL: app }),
-        stdio: ['ignore', appLog, appLog],
-      }),
+      // --cpu-prof is refused in NODE_OPTIONS, so a profiled server is started through node itself.
+      spawnChild(
+        cpuProf ? process.execPath : nextBin,
+        [
+          ...(cpuProf ? ['--cpu-prof', `--cpu-prof-dir=${profDir}`, path.join(root, 'node_modules', 'next', 'dist', 'bin', 'next')] : []),
+          'start',
+          '-H',
+          '127.0.0.1',
+          '-p',
+          String(appPort),
+        ],
+        {
+          env: serverEnv({ ...production, NEXT_DIST_DIR: '.next-bench', APP_URL: app }),
+          stdio: ['ignore', appLog, appLog],
+        },
+      ),
       spawnChild(nextBin, ['start', 'bench/floor', '-H', '127.0.0.1', '-p', String(floorPort)], {
         env: production,
         stdio: ['ignore', floorLog, floorLog],
@@ -535,7 +556,7 @@ async function main() {
     );
     for (const child of children) {
       child.on('exit', (code, signal) => {
-        if (!cleaned)
+        if (!cleaned && !stoppingForProfile)
           console.error(`A server stopped during the bench (${code ?? signal}); see bench/out/app.log and bench/out/floor.log.`);
       });
     }
@@ -589,6 +610,18 @@ async function main() {
       ),
     );
     log(`Figures written to ${path.relative(root, file)}.`);
+    if (cpuProf) {
+      // The profile is written when the server exits: stop it and wait, before the cluster goes.
+      const server = children[0];
+      log('Stopping the app server so that it writes its CPU profile…');
+      stoppingForProfile = true;
+      await new Promise((resolve) => {
+        const timer = setTimeout(resolve, 15_000);
+        server.once('exit', () => (clearTimeout(timer), resolve()));
+        server.kill('SIGINT');
+      });
+      summarize(profDir);
+    }
   } finally {
     cleanup();
   }

@@ -4,7 +4,7 @@ import { getLiveSessionUser } from '@/db/sessions';
 import type { UserWithCompany } from '@/db/users';
 import { AppError } from '@/lib/errors';
 import { mayOpen, type PagePath } from '@/lib/policy';
-import { getSession } from '@/lib/server/session';
+import { readSessionId } from '@/lib/server/session';
 
 export type CurrentUser = UserWithCompany;
 
@@ -14,9 +14,9 @@ export type CurrentUser = UserWithCompany;
  * (lib/policy.ts, applied by lib/server/operation.ts).
  */
 export async function requireUser(): Promise<CurrentUser> {
-  const session = await getSession();
-  if (!session.sid) throw new AppError('unauthorized', 'Sign in to continue.');
-  const user = await getLiveSessionUser({ sessionId: session.sid });
+  const sid = await readSessionId();
+  if (!sid) throw new AppError('unauthorized', 'Sign in to continue.');
+  const user = await getLiveSessionUser({ sessionId: sid });
   if (!user) throw new AppError('unauthorized', 'Your session has ended. Sign in again.');
   return user;
 }
