@@ -25,7 +25,38 @@ export interface UnitDef {
   fromCanonical: (v: number) => number;
 }
 
-export type ParseResult = { ok: true; value: number; unit: string; canonicalUnit: string } | { ok: false; message: string };
+/**
+ * How the number was written, so it can be shown back the way it was entered: "120.4" keeps one
+ * decimal, "120" none, "1 1/8" stays a fraction.
+ */
+export interface EntryForm {
+  /** Written as a fraction or a mixed number ("1/8", "1 1/8"). */
+  fraction: boolean;
+  /** Digits after the decimal separator as written ("120.40" → 2); null for a fraction. */
+  decimals: number | null;
+}
+
+export type ParseResult =
+  { ok: true; value: number; unit: string; canonicalUnit: string; form: EntryForm; overRange?: undefined } | { ok: false; message: string };
+
+/**
+ * An ohms entry of "OL" / "open": the meter is over range, an open circuit. It has no value; the
+ * answer is saved as over range and falls in the band open towards +infinity.
+ */
+export interface OverRangeResult {
+  ok: true;
+  overRange: true;
+  unit: string;
+  canonicalUnit: string;
+}
+
+/** What `parseReading` answers when over-range entries are allowed. */
+export type ReadingParse = ParseResult | OverRangeResult;
+
+/** How an over-range (open-circuit) reading is shown wherever a reading is shown. */
+export const OVER_RANGE_TEXT = 'OL (open circuit)';
+/** The text an over-range reading is stored and typed as. */
+export const OVER_RANGE_ENTRY = 'OL';
 
 /**
  * Values a meter can plausibly show on this equipment, in canonical units (inclusive). Anything
@@ -198,6 +229,31 @@ export const UNITS_BY_QUANTITY: Record<Quantity, UnitDef[]> = Object.fromEntries
 
 const QUANTITY_LIST = Object.keys(UNIT_SPECS) as Quantity[];
 
+/**
+ * The picker's units for a step, from the magnitude of its band limits: a unit is offered when the
+ * largest limit reads at least 0.5 in it (so no feet for a 1/8 in gap, no mA for a flame signal) and
+ * the smallest non-zero limit at most 5000 (no mVAC for 24 or 120 V). The canonical unit, in which
+ * the bands are written, is always offered. Typing any unit of the quantity still works.
+ */
+export function unitsForStep(step: { quantity: Quantity; bands: readonly { from?: number; to?: number }[] }): UnitDef[] {
+  const all = UNITS_BY_QUANTITY[step.quantity];
+  const limits = step.bands
+    .flatMap((b) => [b.from, b.to])
+    .filter((v): v is number => v !== undefined && Number.isFinite(v) && v !== 0)
+    .map(Math.abs);
+  if (limits.length === 0) return all;
+  const smallest = Math.min(...limits);
+  const largest = Math.max(...limits);
+  return all.filter(
+    (u, i) =>
+      i === 0 ||
+      (Math.abs(u.fromCanonical(largest)) >= UNIT_FIT.largestAtLeast && Math.abs(u.fromCanonical(smallest)) <= UNIT_FIT.smallestAtMost),
+  );
+}
+
+/** The thresholds of `unitsForStep`, in the unit being judged. */
+export const UNIT_FIT = { largestAtLeast: 0.5, smallestAtMost: 5000 } as const;
+
 /** Folds the look-alike characters a tablet keyboard or a paste can produce. */
 function foldCharacters(text: string): string {
   return text
@@ -245,7 +301,7 @@ function unitMismatchMessage(quantity: Quantity, unitText: string): string {
   return `${shown} is ${kind} unit, this step measures ${measures}${hint}`;
 }
 
-type NumberParse = { ok: true; value: number; rest: string } | { ok: false; message: string };
+type NumberParse = { ok: true; value: number; rest: string; form: EntryForm } | { ok: false; message: string };
 
 const MIXED = /^(\d+)(?:\s+|\s*-\s*)(\d+)\s*\/\s*(\d+)/;
 const FRACTION = /^(\d+)\s*\/\s*(\d+)/;
@@ -262,12 +318,6 @@ function parseNumber(text: string): NumberParse {
     return { ok: false, message: 'An infinite value is not a reading; enter the number the meter shows' };
   }
   if (/^nan\b/i.test(s)) return { ok: false, message: 'NaN is not a number; enter the number the meter shows' };
-  if (/^OL\b/i.test(s)) {
-    return {
-      ok: false,
-      message: 'OL means the meter is over range; enter a number (an open circuit can be entered as a very high value)',
-    };
-  }
 
   const mixed = MIXED.exec(s);
   if (mixed) {
@@ -276,13 +326,13 @@ function parseNumber(text: string): NumberParse {
     if (num >= den) {
       return { ok: false, message: `In a mixed number the fraction must be less than 1 (${mixed[0].trim()})` };
     }
-    return { ok: true, value: sign * (whole + num / den), rest: s.slice(mixed[0].length) };
+    return { ok: true, value: sign * (whole + num / den), rest: s.slice(mixed[0].length), form: FRACTION_FORM };
   }
   const fraction = FRACTION.exec(s);
   if (fraction) {
     const [num, den] = [Number(fraction[1]), Number(fraction[2])];
     if (den === 0) return { ok: false, message: `Division by zero in the fraction ${num}/${den}` };
-    return { ok: true, value: (sign * num) / den, rest: s.slice(fraction[0].length) };
+    return { ok: true, value: (sign * num) / den, rest: s.slice(fraction[0].length), form: FRACTION_FORM };
   }
   const decimal = DECIMAL.exec(s);
   if (!decimal) return { ok: false, message: `"${text}" is not a number` };
@@ -298,18 +348,71 @@ function parseNumber(text: string): NumberParse {
   if (!Number.isFinite(value)) {
     return { ok: false, message: `${literal} is too large to be a reading (it is infinite as a number)` };
   }
-  return { ok: true, value, rest: s.slice(literal.length) };
+  return { ok: true, value, rest: s.slice(literal.length), form: { fraction: false, decimals: decimalsOf(literal) } };
+}
+
+const FRACTION_FORM: EntryForm = { fraction: true, decimals: null };
+
+/** Decimals as written: "120.40" → 2, "1.2e3" → 0, "5e-3" → 3. */
+function decimalsOf(literal: string): number {
+  const [mantissa, exponent] = literal.toLowerCase().split('e');
+  const sep = mantissa.search(/[.,]/);
+  const written = sep === -1 ? 0 : mantissa.length - sep - 1;
+  return Math.min(9, Math.max(0, written - Number(exponent ?? 0)));
+}
+
+// What meters and technicians write for an open circuit: "OL", "O.L.", "0.L", "open", "open circuit", "over range".
+const OVER_RANGE = /^(?:o\.?\s?l\.?|0\.l\.?|open(?:\s+circuit)?|over[\s-]?range)(?![a-z])/i;
+
+/** An "OL" entry: the over-range answer on an ohms step, or a message saying why not. */
+function parseOverRange(quantity: Quantity, text: string, unit: string | undefined, allowed: boolean): ReadingParse | null {
+  const signed = /^[+-]\s*/.exec(text);
+  const body = signed ? text.slice(signed[0].length) : text;
+  const match = OVER_RANGE.exec(body);
+  if (!match) return null;
+  if (quantity !== 'ohm') {
+    return {
+      ok: false,
+      message: `OL is only for resistance: on ${QUANTITY_WORDS[quantity].measures} set the meter to a higher range and enter the number it shows`,
+    };
+  }
+  if (signed) return { ok: false, message: 'An open circuit (OL) has no sign: enter OL alone' };
+  const rest = body.slice(match[0].length).trim();
+  let chosen: UnitDef | undefined = UNITS_BY_QUANTITY.ohm[0];
+  if (rest !== '') {
+    chosen = findInQuantity('ohm', rest);
+    if (!chosen) return { ok: false, message: unitMismatchMessage('ohm', rest) };
+  } else if (unit !== undefined && unit.trim() !== '') {
+    chosen = findInQuantity('ohm', unit) ?? chosen;
+  }
+  if (!allowed) {
+    return {
+      ok: false,
+      message: 'OL means the meter is over range (an open circuit): it is saved as an over-range answer, not as a number',
+    };
+  }
+  return { ok: true, overRange: true, unit: chosen.symbol, canonicalUnit: CANONICAL_UNITS.ohm };
+}
+
+export interface ParseOptions {
+  /** Take "OL" / "open" on an ohms step as the over-range answer (otherwise it is refused with why). */
+  overRange?: boolean;
 }
 
 /**
  * Parse a typed reading for a quantity. `unit` is the picker's choice; a unit written in the text
- * wins over it. The value comes back in the quantity's canonical unit.
+ * wins over it. The value comes back in the quantity's canonical unit. With `{ overRange: true }`,
+ * "OL" on an ohms step comes back as an `OverRangeResult` (no value).
  */
-export function parseReading(quantity: Quantity, text: string, unit?: string): ParseResult {
+export function parseReading(quantity: Quantity, text: string, unit?: string): ParseResult;
+export function parseReading(quantity: Quantity, text: string, unit: string | undefined, options: ParseOptions): ReadingParse;
+export function parseReading(quantity: Quantity, text: string, unit?: string, options: ParseOptions = {}): ReadingParse {
   if (!QUANTITY_LIST.includes(quantity)) return { ok: false, message: `Unknown quantity "${String(quantity)}"` };
   const canonicalUnit = CANONICAL_UNITS[quantity];
   const trimmed = foldCharacters(text ?? '').trim();
   if (trimmed === '') return { ok: false, message: 'Enter a reading: the value is empty' };
+  const open = parseOverRange(quantity, trimmed, unit, options.overRange === true);
+  if (open) return open;
 
   const num = parseNumber(trimmed);
   if (!num.ok) return num;
@@ -341,7 +444,7 @@ export function parseReading(quantity: Quantity, text: string, unit?: string): P
         `${formatNumber(range.min, 4)} to ${formatNumber(range.max, 4)} ${canonicalUnit}: check the meter function and the unit`,
     };
   }
-  return { ok: true, value, unit: chosen.symbol, canonicalUnit };
+  return { ok: true, value, unit: chosen.symbol, canonicalUnit, form: num.form };
 }
 
 function requireUnit(quantity: Quantity, unitText: string): UnitDef {
@@ -401,6 +504,8 @@ export interface FormatOptions {
   fraction?: boolean;
   /** How close to a 64th, in inches, counts as "that close" (default 0.0005 in). */
   fractionTolerance?: number;
+  /** Exactly this many decimals, trailing zeros kept: the precision a reading was entered with. */
+  decimals?: number;
 }
 
 /** A canonical value shown in `unit` (default the canonical one), e.g. "26.4 VAC", "1/8 in". */
@@ -412,7 +517,36 @@ export function formatReading(quantity: Quantity, canonicalValue: number, unit?:
     const frac = inchFraction(shown, opts.fractionTolerance ?? 0.0005);
     if (frac !== null) return `${frac} ${target.symbol}`;
   }
+  if (opts.decimals !== undefined) return `${fixedNumber(shown, opts.decimals)} ${target.symbol}`;
   return `${formatNumber(shown, opts.significant ?? 3)} ${target.symbol}`;
+}
+
+/** The value with exactly `decimals` decimals, rounded on its shortest decimal form like formatNumber. */
+function fixedNumber(value: number, decimals: number): string {
+  const d = Math.min(9, Math.max(0, Math.trunc(decimals)));
+  const plain = String(Math.abs(value));
+  const rounded = plain.includes('e') ? Math.abs(value) : Number(`${Math.round(Number(`${plain}e${d}`))}e-${d}`);
+  const s = (Math.sign(value) * rounded).toFixed(d);
+  return /^-0(\.0*)?$/.test(s) ? s.slice(1) : s;
+}
+
+/** Format options that show a value the way a reading was entered: its fraction, or its decimals. */
+export function formatOptionsFor(form: EntryForm | undefined): FormatOptions {
+  if (!form) return { fraction: true };
+  if (form.fraction) return { fraction: true };
+  return { decimals: form.decimals ?? 0 };
+}
+
+/**
+ * A typed reading as the wizard shows it back: in the unit it was entered in, to the precision it
+ * was entered with ("120.4 VAC", "1 1/8 in", "3.5 inWC" for "3,5"), or "OL (open circuit)".
+ * Null when the text is not a reading of the quantity.
+ */
+export function formatEntry(quantity: Quantity, text: string, unit?: string): string | null {
+  const parsed = parseReading(quantity, text, unit, { overRange: true });
+  if (!parsed.ok) return null;
+  if (parsed.overRange) return OVER_RANGE_TEXT;
+  return formatReading(quantity, parsed.value, parsed.unit, formatOptionsFor(parsed.form));
 }
 
 /**

@@ -231,8 +231,9 @@ describe('parseReading: refusals say why', () => {
     expect(convert('udc', 0.8, 'mA', 'µA')).toBeCloseTo(800, 9);
   });
 
-  it('refuses an over-range display', () => {
-    expect(refused('ohm', 'OL')).toMatch(/over range/);
+  it('refuses an over-range display unless over range is asked for (see units-entry.test.ts)', () => {
+    expect(refused('ohm', 'OL')).toMatch(/saved as an over-range answer, not as a number/);
+    expect(refused('vac', 'OL')).toMatch(/OL is only for resistance/);
   });
 
   it.each([
