@@ -13,12 +13,12 @@ function NumberField({ label, value, onChange, suffix }: { label: string; value:
   const id = useId();
   return (
     <div>
-      <label htmlFor={id} className="label">
+      <label htmlFor={id} className="label text-base">
         {label}
       </label>
       <div className="flex items-center gap-2">
         <input id={id} className="input font-mono" inputMode="decimal" value={value} onChange={(e) => onChange(e.target.value)} />
-        <span className="font-mono text-sm text-muted">{suffix}</span>
+        <span className="font-mono text-base text-muted">{suffix}</span>
       </div>
     </div>
   );
@@ -45,7 +45,7 @@ export function VoltageDropAid() {
       </h3>
       <div className="grid grid-cols-2 gap-3 sm:grid-cols-4">
         <div>
-          <label htmlFor={`${id}-awg`} className="label">
+          <label htmlFor={`${id}-awg`} className="label text-base">
             Wire gauge
           </label>
           <select id={`${id}-awg`} className="input font-mono" value={awg} onChange={(e) => setAwg(e.target.value)}>

@@ -37,22 +37,22 @@ export function IgnitionTimeline({ profile = DEFAULT_CONTROL_PROFILE }: { profil
                   e.valvePowered ? 'bg-ink' : 'bg-raised',
                 )}
               />
-              <span className="font-mono text-sm text-muted">
+              <span className="font-mono text-base text-muted">
                 t = {secondsText(e.startsAtMs)}
                 {e.endsAtMs !== null ? `–${secondsText(e.endsAtMs)}` : ''}
               </span>
-              <span className="ml-2 inline-flex gap-1 align-middle text-xs">
+              <span className="ml-2 inline-flex gap-1 align-middle text-base">
                 {e.spark && <span className="rounded border border-ink px-1">spark</span>}
                 {e.valvePowered && <span className="rounded border border-ink bg-ink px-1 text-surface">valve powered</span>}
               </span>
-              <p className="text-sm">{e.text}</p>
+              <p className="text-base">{e.text}</p>
             </li>
           ))}
           {lockout && (
             <li className="relative">
               <span aria-hidden className="absolute -left-[1.45rem] top-1.5 h-3 w-3 rounded-full border-2 border-ink bg-raised" />
-              <span className="font-mono text-sm text-muted">after {profile.trials} trials</span>
-              <p className="text-sm">{lockout.text}</p>
+              <span className="font-mono text-base text-muted">after {profile.trials} trials</span>
+              <p className="text-base">{lockout.text}</p>
             </li>
           )}
         </ol>

@@ -42,7 +42,7 @@ export function TestPoints({ step }: { step: Pick<MeasureStep, 'points' | 'quant
   const series = step.quantity === 'udc';
   return (
     <div className="rounded-lg border border-line bg-sunken px-4 py-3" data-testid="test-points">
-      <p className="text-sm font-semibold uppercase tracking-wide text-muted">
+      <p className="text-base font-semibold uppercase tracking-wide text-muted">
         {METER_FUNCTION[step.quantity]} · {series ? 'meter in series' : 'test points'}
       </p>
       <p className="mt-1 break-words font-mono text-lg font-semibold sm:text-xl">
@@ -53,11 +53,14 @@ export function TestPoints({ step }: { step: Pick<MeasureStep, 'points' | 'quant
   );
 }
 
-/** The learner's note: closed by default so it never pushes the instruction down. */
-export function WhyThisStep({ why }: { why?: string }) {
+/**
+ * The learner's note: open by default for apprentices, closed for everyone else so it never pushes
+ * the instruction down. Either way it can be opened and closed.
+ */
+export function WhyThisStep({ why, defaultOpen = false }: { why?: string; defaultOpen?: boolean }) {
   if (!why) return null;
   return (
-    <details className="group rounded-lg border border-line bg-raised">
+    <details className="group rounded-lg border border-line bg-raised" open={defaultOpen || undefined} data-testid="why-this-step">
       <summary className="flex min-h-touch cursor-pointer list-none items-center gap-2 px-4 font-semibold">
         <span aria-hidden className="transition-transform group-open:rotate-90">
           ▶

@@ -2,8 +2,16 @@
 
 import { useEffect, useRef, useState } from 'react';
 
+export interface UndoLastProps {
+  lastTitle: string | null;
+  disabled: boolean;
+  onUndo: () => void;
+  /** Why undo is not offered at all (a closed call, a signed-off diagnosis); said instead of the button. */
+  lockedReason?: string | null;
+}
+
 /** Undo of the last answer, behind a confirmation, since it removes a saved answer. */
-export function UndoLast({ lastTitle, disabled, onUndo }: { lastTitle: string | null; disabled: boolean; onUndo: () => void }) {
+export function UndoLast({ lastTitle, disabled, onUndo, lockedReason }: UndoLastProps) {
   const [asking, setAsking] = useState(false);
   const confirmRef = useRef<HTMLButtonElement>(null);
   const openerRef = useRef<HTMLButtonElement>(null);
@@ -11,6 +19,13 @@ export function UndoLast({ lastTitle, disabled, onUndo }: { lastTitle: string | 
     if (asking) confirmRef.current?.focus();
   }, [asking]);
   if (!lastTitle) return null;
+  if (lockedReason) {
+    return (
+      <p className="text-base text-muted" data-testid="undo-locked">
+        {lockedReason}
+      </p>
+    );
+  }
   if (!asking) {
     return (
       <button ref={openerRef} type="button" className="btn-secondary" disabled={disabled} onClick={() => setAsking(true)}>
