@@ -6,7 +6,7 @@
 // the path the server will take when the queue reaches it.
 import { assign, fromPromise, setup } from 'xstate';
 import { findBand } from '@/lib/bands';
-import type { Step, TreeVersion, Verdict } from '@/lib/trees/schema';
+import type { Quantity, Step, TreeVersion, Verdict } from '@/lib/trees/schema';
 import { answerEvent, getStep, replayAnswers, stateIdOf, type DiagnosisAnswer } from '@/machines/diagnosis-machine';
 
 export type AnswerKind = 'measure' | 'inspect' | 'action';
@@ -20,6 +20,8 @@ export interface WizardAnswer {
   text?: string;
   unit?: string;
   value?: number;
+  /** An ohms reading over range ("OL", open circuit): sent as `overRange: true` without a value. */
+  overRange?: true;
   choice?: string;
   confirmed?: boolean;
 }
@@ -47,8 +49,12 @@ export interface ServerAnswer {
   verdict: string | null;
   choice: string | null;
   confirmed: boolean | null;
+  /** Optional until every server sends it; an over-range reading is also stored as text "OL" without a value. */
+  overRange?: boolean | null;
   at: string | Date;
 }
+
+const isOverRange = (a: ServerAnswer) => a.overRange ?? (a.kind === 'measure' && a.value === null && a.text?.trim().toUpperCase() === 'OL');
 
 /** What the server says of a reached finding: the readings that contradict it. */
 export interface FindingCheck {
@@ -134,6 +140,7 @@ export function toSavedAnswer(a: ServerAnswer): SavedAnswer {
     ...(a.text !== null ? { text: a.text } : {}),
     ...(a.unit !== null ? { unit: a.unit } : {}),
     ...(a.value !== null ? { value: a.value } : {}),
+    ...(isOverRange(a) ? { overRange: true as const } : {}),
     ...(a.choice !== null ? { choice: a.choice } : {}),
     ...(a.confirmed !== null ? { confirmed: a.confirmed } : {}),
     band: a.band,
@@ -145,6 +152,7 @@ export function toSavedAnswer(a: ServerAnswer): SavedAnswer {
 const asDiagnosisAnswer = (a: WizardAnswer): DiagnosisAnswer => ({
   stepId: a.stepId,
   ...(a.value !== undefined ? { value: a.value } : {}),
+  ...(a.overRange ? { overRange: true } : {}),
   ...(a.choice !== undefined ? { choice: a.choice } : {}),
   ...(a.confirmed !== undefined ? { confirmed: a.confirmed } : {}),
 });
@@ -501,9 +509,12 @@ export interface PathItem {
   stepId: string;
   stepTitle: string;
   kind: AnswerKind;
+  /** The quantity of a measure step, to show the reading as it was entered. */
+  quantity?: Quantity;
   text?: string;
   unit?: string;
   value?: number;
+  overRange?: true;
   band?: string;
   verdict?: Verdict;
   choiceLabel?: string;
@@ -514,15 +525,19 @@ export interface PathItem {
 export function pathItems(context: Pick<WizardContext, 'version' | 'saved' | 'pending'>): PathItem[] {
   const item = (a: WizardAnswer & { band?: string | null; verdict?: string | null }, saved: boolean): PathItem => {
     const step = getStep(context.version, a.stepId);
-    const local = step?.kind === 'measure' && a.value !== undefined ? findBand(step.bands, a.value) : null;
+    // An over-range reading falls in the band open towards +infinity.
+    const open = step?.kind === 'measure' && a.overRange ? step.bands.findLast((x) => x.to === undefined) : undefined;
+    const local = open ? { band: open } : step?.kind === 'measure' && a.value !== undefined ? findBand(step.bands, a.value) : null;
     return {
       clientId: a.clientId,
       stepId: a.stepId,
       stepTitle: step?.title ?? a.stepId,
       kind: a.kind,
+      ...(step?.kind === 'measure' ? { quantity: step.quantity } : {}),
       ...(a.text !== undefined ? { text: a.text } : {}),
       ...(a.unit !== undefined ? { unit: a.unit } : {}),
       ...(a.value !== undefined ? { value: a.value } : {}),
+      ...(a.overRange ? { overRange: true as const } : {}),
       ...((a.band ?? local) ? { band: a.band ?? local?.band.label } : {}),
       ...((a.verdict ?? local) ? { verdict: (a.verdict ?? local?.band.verdict) as Verdict } : {}),
       ...(step?.kind === 'inspect' && a.choice ? { choiceLabel: step.choices.find((c) => c.value === a.choice)?.label ?? a.choice } : {}),

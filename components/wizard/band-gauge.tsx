@@ -1,7 +1,7 @@
 import clsx from 'clsx';
 import { findBand, gaugePosition, gaugeScale } from '@/lib/bands';
 import type { MeasureStep, Verdict } from '@/lib/trees/schema';
-import { formatReading } from '@/lib/units';
+import { formatOptionsFor, formatReading, OVER_RANGE_TEXT, type EntryForm, type FormatOptions } from '@/lib/units';
 
 // A reading against its bands: position on a horizontal scale, an icon and a word. Bands are told
 // apart by pattern and by their labels, never by colour alone.
@@ -12,41 +12,58 @@ export interface BandGaugeProps {
   step: Pick<MeasureStep, 'id' | 'bands' | 'quantity'>;
   /** The reading in the quantity's canonical unit; omit to draw the bands alone. */
   value?: number;
-  /** The unit to show numbers in (the one the user picked). */
+  /** An ohms reading over range ("OL", open circuit): no value, it falls in the band open above. */
+  overRange?: boolean;
+  /** The unit to show numbers in: the one the reading was entered in. */
   unit?: string;
+  /** How the reading was written: its value is shown to that precision, ticks as fractions if it was one. */
+  form?: EntryForm;
   /** What the reading is: "Preview" while typing, nothing once saved. */
   caption?: string;
 }
 
-function limitText(step: BandGaugeProps['step'], value: number, unit?: string) {
-  return formatReading(step.quantity, value, unit, { fraction: true });
+function limitText(step: BandGaugeProps['step'], value: number, unit: string | undefined, opts: FormatOptions) {
+  return formatReading(step.quantity, value, unit, opts);
 }
 
-function rangeText(step: BandGaugeProps['step'], band: { from?: number; to?: number }, unit?: string) {
-  if (band.from === undefined && band.to !== undefined) return `under ${limitText(step, band.to, unit)}`;
-  if (band.to === undefined && band.from !== undefined) return `${limitText(step, band.from, unit)} and up`;
-  if (band.from !== undefined && band.to !== undefined) return `${limitText(step, band.from, unit)} to ${limitText(step, band.to, unit)}`;
+function rangeText(step: BandGaugeProps['step'], band: { from?: number; to?: number }, unit: string | undefined, opts: FormatOptions) {
+  const at = (v: number) => limitText(step, v, unit, opts);
+  if (band.from === undefined && band.to !== undefined) return `under ${at(band.to)}`;
+  if (band.to === undefined && band.from !== undefined) return `${at(band.from)} and up`;
+  if (band.from !== undefined && band.to !== undefined) return `${at(band.from)} to ${at(band.to)}`;
   return 'any value';
 }
 
-export function BandGauge({ step, value, unit, caption }: BandGaugeProps) {
+/** The band an over-range reading falls in: the last one open towards +infinity. */
+function overRangeMatch(bands: BandGaugeProps['step']['bands']) {
+  const index = bands.findLastIndex((b) => b.to === undefined);
+  return index === -1 ? null : { band: bands[index], index };
+}
+
+export function BandGauge({ step, value, overRange = false, unit, form, caption }: BandGaugeProps) {
   const scale = gaugeScale(step);
-  const match = value === undefined ? null : findBand(step.bands, value);
-  const position = value === undefined ? null : gaugePosition(scale, value);
-  const offScale = value !== undefined && (value < scale.min || value > scale.max);
+  const match = overRange ? overRangeMatch(step.bands) : value === undefined ? null : findBand(step.bands, value);
+  const position = overRange ? 1 : value === undefined ? null : gaugePosition(scale, value);
+  const offScale = overRange || (value !== undefined && (value < scale.min || value > scale.max));
   const ticks = [...new Set(step.bands.flatMap((b) => [b.from, b.to]).filter((v): v is number => v !== undefined))];
   const idBase = `g-${step.id}`;
-  const shown = value === undefined ? null : formatReading(step.quantity, value, unit, { fraction: true });
+  // Limits in the unit of the reading, as fractions when the reading was written as one.
+  const limitOpts: FormatOptions = form && !form.fraction ? {} : { fraction: true };
+  const shown = overRange
+    ? OVER_RANGE_TEXT
+    : value === undefined
+      ? null
+      : formatReading(step.quantity, value, unit, formatOptionsFor(form));
   const summary =
     match && shown
-      ? `${caption ? `${caption}: ` : ''}${shown} — ${VERDICT_WORD[match.band.verdict]}: ${match.band.label} (${rangeText(step, match.band, unit)})`
-      : `Bands: ${step.bands.map((b) => `${b.label} (${rangeText(step, b, unit)})`).join('; ')}`;
+      ? `${caption ? `${caption}: ` : ''}${shown} — ${VERDICT_WORD[match.band.verdict]}: ${match.band.label} (${rangeText(step, match.band, unit, limitOpts)})`
+      : `Bands: ${step.bands.map((b) => `${b.label} (${rangeText(step, b, unit, limitOpts)})`).join('; ')}`;
 
   return (
     <figure className="rounded-xl border border-line bg-raised p-3 sm:p-4" data-testid="band-gauge">
       {match && shown && (
         <p className="mb-2 flex flex-wrap items-baseline gap-x-3 gap-y-1" data-testid="gauge-verdict" data-verdict={match.band.verdict}>
-          {caption && <span className="text-sm font-semibold uppercase tracking-wide text-muted">{caption}</span>}
+          {caption && <span className="text-base font-semibold uppercase tracking-wide text-muted">{caption}</span>}
           <span className="font-mono text-2xl font-bold">{shown}</span>
           <span className="text-xl font-bold">
             <span aria-hidden className="mr-1">
@@ -105,10 +122,11 @@ export function BandGauge({ step, value, unit, caption }: BandGaugeProps) {
           <span
             key={t}
             aria-hidden
-            className="absolute bottom-0 -translate-x-1/2 whitespace-nowrap font-mono text-xs text-muted sm:text-sm"
+            data-testid="gauge-tick"
+            className="absolute bottom-0 -translate-x-1/2 whitespace-nowrap font-mono text-base leading-6 text-muted"
             style={{ left: `${gaugePosition(scale, t) * 100}%` }}
           >
-            {limitText(step, t, unit).replace(/ [^ ]+$/, '')}
+            {limitText(step, t, unit, limitOpts).replace(/ [^ ]+$/, '')}
           </span>
         ))}
         {position !== null && (
@@ -128,7 +146,7 @@ export function BandGauge({ step, value, unit, caption }: BandGaugeProps) {
         {summary}
         {offScale ? ' (beyond the end of the scale)' : ''}
       </figcaption>
-      <ol className="mt-2 grid gap-1 text-sm sm:grid-cols-2" aria-label="Bands">
+      <ol className="mt-2 grid gap-1 text-base sm:grid-cols-2" aria-label="Bands">
         {step.bands.map((b, i) => (
           <li
             key={i}
@@ -139,7 +157,7 @@ export function BandGauge({ step, value, unit, caption }: BandGaugeProps) {
           >
             <span aria-hidden>{VERDICT_ICON[b.verdict]}</span>
             <span>
-              {b.label} <span className="whitespace-nowrap font-mono">({rangeText(step, b, unit)})</span>
+              {b.label} <span className="whitespace-nowrap font-mono">({rangeText(step, b, unit, limitOpts)})</span>
               {match?.index === i && <span className="sr-only"> — this reading</span>}
             </span>
           </li>

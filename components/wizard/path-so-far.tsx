@@ -1,12 +1,19 @@
 import type { PathItem } from '@/machines/wizard-machine';
 import { VERDICT_ICON, VERDICT_WORD } from '@/components/wizard/band-gauge';
+import { formatEntry, OVER_RANGE_TEXT } from '@/lib/units';
+
+/** A reading as it was entered: its unit and its precision ("120.4 VAC", "1 1/8 in"), or "OL (open circuit)". */
+export function readingText(item: Pick<PathItem, 'quantity' | 'text' | 'unit' | 'overRange'>): string {
+  if (item.overRange) return OVER_RANGE_TEXT;
+  const typed = (item.text ?? '').trim();
+  const shown = item.quantity && typed !== '' ? formatEntry(item.quantity, typed, item.unit) : null;
+  if (shown) return shown;
+  // Not a reading this app parses (an answer from an older version): show it as stored.
+  return item.unit && !typed.includes(item.unit) ? `${typed} ${item.unit}` : typed;
+}
 
 function answerText(item: PathItem) {
-  if (item.kind === 'measure') {
-    const typed = item.text ?? '';
-    const withUnit = item.unit && !typed.includes(item.unit) ? `${typed} ${item.unit}` : typed;
-    return <span className="font-mono">{withUnit}</span>;
-  }
+  if (item.kind === 'measure') return <span className="font-mono">{readingText(item)}</span>;
   if (item.kind === 'inspect') return item.choiceLabel ?? '';
   return 'Done';
 }
@@ -21,20 +28,20 @@ export function PathSoFar({ items }: { items: PathItem[] }) {
         {items.map((item, i) => (
           <li
             key={item.clientId}
-            className="grid grid-cols-[2rem_minmax(0,1fr)] gap-x-2 py-2 sm:grid-cols-[2rem_minmax(0,1fr)_minmax(0,1fr)]"
+            className="grid grid-cols-[2.5rem_minmax(0,1fr)] gap-x-2 py-2 sm:grid-cols-[2.5rem_minmax(0,1fr)_minmax(0,1fr)]"
           >
-            <span className="font-mono text-sm text-muted">{i + 1}.</span>
+            <span className="font-mono text-base text-muted">{i + 1}.</span>
             <span className="font-medium">{item.stepTitle}</span>
             <span className="col-start-2 sm:col-start-3">
               {answerText(item)}
               {item.verdict && (
-                <span className="ml-2 text-sm">
+                <span className="ml-2 text-base">
                   <span aria-hidden>{VERDICT_ICON[item.verdict]} </span>
                   {VERDICT_WORD[item.verdict]}
                   {item.band ? ` — ${item.band}` : ''}
                 </span>
               )}
-              {!item.saved && <span className="ml-2 text-sm italic text-muted">(not saved yet)</span>}
+              {!item.saved && <span className="ml-2 text-base italic text-muted">(not saved yet)</span>}
             </span>
           </li>
         ))}

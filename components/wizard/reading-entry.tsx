@@ -2,7 +2,7 @@
 
 import { useId } from 'react';
 import type { MeasureStep } from '@/lib/trees/schema';
-import { parseReading, type ParseResult } from '@/lib/units';
+import { formatOptionsFor, formatReading, OVER_RANGE_ENTRY, OVER_RANGE_TEXT, parseReading, type ReadingParse } from '@/lib/units';
 import { BandGauge } from '@/components/wizard/band-gauge';
 import { NumericKeypad } from '@/components/wizard/numeric-keypad';
 import { UnitPicker } from '@/components/wizard/unit-picker';
@@ -12,10 +12,19 @@ export interface ReadingValue {
   unit: string;
 }
 
-/** The same parse the server runs on the answer, so what is refused here would be refused there. */
-export function parseEntry(step: Pick<MeasureStep, 'quantity'>, value: ReadingValue): ParseResult {
-  return parseReading(step.quantity, value.text, value.unit);
+/**
+ * The same parse the server runs on the answer, so what is refused here would be refused there.
+ * "OL" / "open" on an ohms step comes back as the over-range answer (saved as `overRange: true`).
+ */
+export function parseEntry(step: Pick<MeasureStep, 'quantity'>, value: ReadingValue): ReadingParse {
+  return parseReading(step.quantity, value.text, value.unit, { overRange: true });
 }
+
+const HINTS: Partial<Record<MeasureStep['quantity'], string>> = {
+  length: 'Type the value or use the keypad; fractions like 1 1/8 work for inches.',
+  ohm: 'Type the value or use the keypad; OL is an open circuit (the meter over range).',
+};
+const HINT = 'Type the value or use the keypad.';
 
 export interface ReadingEntryProps {
   step: Pick<MeasureStep, 'id' | 'quantity' | 'bands'>;
@@ -30,6 +39,7 @@ export function ReadingEntry({ step, value, onChange, onSubmit, disabled }: Read
   const id = useId();
   const parsed = value.text.trim() === '' ? null : parseEntry(step, value);
   const signed = step.quantity === 'vdc' || step.quantity === 'udc';
+  const ohms = step.quantity === 'ohm';
 
   const setText = (text: string) => onChange({ ...value, text });
 
@@ -37,7 +47,7 @@ export function ReadingEntry({ step, value, onChange, onSubmit, disabled }: Read
     <div className="space-y-4">
       <div className="grid gap-4 md:grid-cols-[minmax(0,1fr)_minmax(0,1fr)]">
         <div className="space-y-3">
-          <label htmlFor={`${id}-reading`} className="label">
+          <label htmlFor={`${id}-reading`} className="label text-base">
             Reading
           </label>
           <input
@@ -59,18 +69,24 @@ export function ReadingEntry({ step, value, onChange, onSubmit, disabled }: Read
             }}
           />
           <div>
-            <p className="label" id={`${id}-unit`}>
+            <p className="label text-base" id={`${id}-unit`}>
               Unit
             </p>
-            <UnitPicker quantity={step.quantity} value={value.unit} onChange={(unit) => onChange({ ...value, unit })} />
+            <UnitPicker step={step} value={value.unit} onChange={(unit) => onChange({ ...value, unit })} />
           </div>
           <p id={`${id}-feedback`} aria-live="polite" className="min-h-[1.5rem] text-base" data-testid="parse-feedback">
             {parsed === null ? (
-              <span className="text-muted">Type the value or use the keypad; fractions like 1 1/8 work for inches.</span>
+              <span className="text-muted">{HINTS[step.quantity] ?? HINT}</span>
+            ) : parsed.ok && parsed.overRange ? (
+              <span>
+                <span aria-hidden>✓ </span>Reads as <span className="font-mono font-semibold">{OVER_RANGE_TEXT}</span>
+              </span>
             ) : parsed.ok ? (
               <span>
-                <span aria-hidden>✓ </span>Reads as <span className="font-mono font-semibold">{value.text.trim()}</span>
-                {!/[a-zµΩ"']/i.test(value.text) && <span className="font-mono font-semibold"> {parsed.unit}</span>}
+                <span aria-hidden>✓ </span>Reads as{' '}
+                <span className="font-mono font-semibold">
+                  {formatReading(step.quantity, parsed.value, parsed.unit, formatOptionsFor(parsed.form))}
+                </span>
               </span>
             ) : (
               <span className="field-error mt-0" role="status">
@@ -83,12 +99,19 @@ export function ReadingEntry({ step, value, onChange, onSubmit, disabled }: Read
           disabled={disabled}
           fractions={step.quantity === 'length'}
           negative={signed}
+          onOverRange={ohms ? () => setText(OVER_RANGE_ENTRY) : undefined}
           // The field is not focused from the keypad: that would pop up the tablet's own keyboard.
-          onKey={(k) => setText(value.text + k)}
+          // A digit after "OL" starts a number again rather than making "OL5".
+          onKey={(k) => setText((parsed?.ok && parsed.overRange ? '' : value.text) + k)}
           onBackspace={() => setText(value.text.slice(0, -1))}
         />
       </div>
-      {parsed?.ok && <BandGauge step={step} value={parsed.value} unit={parsed.unit} caption="This reading" />}
+      {parsed?.ok &&
+        (parsed.overRange ? (
+          <BandGauge step={step} overRange unit={parsed.unit} caption="This reading" />
+        ) : (
+          <BandGauge step={step} value={parsed.value} unit={parsed.unit} form={parsed.form} caption="This reading" />
+        ))}
     </div>
   );
 }

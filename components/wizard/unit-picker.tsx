@@ -2,12 +2,24 @@
 
 import clsx from 'clsx';
 import { useRef } from 'react';
-import type { Quantity } from '@/lib/trees/schema';
-import { UNITS_BY_QUANTITY } from '@/lib/units';
+import type { MeasureStep } from '@/lib/trees/schema';
+import { UNITS_BY_QUANTITY, unitsForStep } from '@/lib/units';
 
-/** Segmented buttons, one per unit of the quantity; a radio group for keyboards and screen readers. */
-export function UnitPicker({ quantity, value, onChange }: { quantity: Quantity; value: string; onChange: (unit: string) => void }) {
-  const units = UNITS_BY_QUANTITY[quantity];
+export interface UnitPickerProps {
+  step: Pick<MeasureStep, 'quantity' | 'bands'>;
+  value: string;
+  onChange: (unit: string) => void;
+}
+
+/**
+ * Segmented buttons, one per unit that fits the step (its quantity and the magnitude of its bands);
+ * a radio group for keyboards and screen readers. A unit already chosen (a company default, a
+ * reading given back after a refusal) stays on offer even when it is not one of those.
+ */
+export function UnitPicker({ step, value, onChange }: UnitPickerProps) {
+  const fitting = unitsForStep(step);
+  const current = fitting.some((u) => u.symbol === value) ? undefined : UNITS_BY_QUANTITY[step.quantity].find((u) => u.symbol === value);
+  const units = current ? UNITS_BY_QUANTITY[step.quantity].filter((u) => u === current || fitting.includes(u)) : fitting;
   const refs = useRef<(HTMLButtonElement | null)[]>([]);
   if (units.length < 2) {
     return (

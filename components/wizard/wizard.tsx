@@ -5,7 +5,8 @@ import clsx from 'clsx';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { fromPromise } from 'xstate';
 import type { ActionStep, FindingStep, InspectStep, MeasureStep, TreeVersion } from '@/lib/trees/schema';
-import { displayUnitFor, type UnitSystem } from '@/lib/units';
+import type { Role } from '@/lib/roles';
+import { displayUnitFor, OVER_RANGE_ENTRY, type UnitSystem } from '@/lib/units';
 import { fetcher } from '@/lib/swr/fetcher';
 import type { ActionResult, AnswerResult, DiagnosisViewOut } from '@/lib/validations/api';
 import { getStep } from '@/machines/diagnosis-machine';
@@ -81,6 +82,8 @@ export interface WizardProps {
   initialView: DiagnosisViewOut;
   displayUnits: UnitSystem;
   transformerVa: number | null;
+  /** The signed-in user's role: "why this step" opens by itself for apprentices. */
+  viewerRole?: Role | null;
 }
 
 const queueKey = (id: string) => `pg-wizard-queue:${id}`;
@@ -103,17 +106,19 @@ function writeQueue(id: string, pending: PendingAnswer[]) {
   }
 }
 
-function answerPayload(a: PendingAnswer) {
+/** The answer as the save sends it: an over-range reading goes as `overRange: true`, without text or value. */
+export function answerPayload(a: PendingAnswer) {
   return {
     clientId: a.clientId,
     stepId: a.stepId,
-    ...(a.kind === 'measure' ? { text: a.text ?? '', ...(a.unit ? { unit: a.unit } : {}) } : {}),
+    ...(a.kind === 'measure' && a.overRange ? { overRange: true as const } : {}),
+    ...(a.kind === 'measure' && !a.overRange ? { text: a.text ?? '', ...(a.unit ? { unit: a.unit } : {}) } : {}),
     ...(a.kind === 'inspect' ? { choice: a.choice } : {}),
     ...(a.kind === 'action' ? { confirmed: true } : {}),
   };
 }
 
-export function Wizard({ actions, diagnosisId, callId, version, initialView, displayUnits, transformerVa }: WizardProps) {
+export function Wizard({ actions, diagnosisId, callId, version, initialView, displayUnits, transformerVa, viewerRole }: WizardProps) {
   // The server's view as last seen: the page's, then what an undo or a reload answered.
   const [view, setView] = useState(initialView);
 
@@ -190,6 +195,7 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
       <PathSoFar items={items} />
       <UndoLast
         lastTitle={items.at(-1)?.stepTitle ?? null}
+        lockedReason={undoLockedReason(view)}
         disabled={!snapshot.can({ type: 'answer.undo' })}
         onUndo={() => send({ type: 'answer.undo' })}
       />
@@ -198,9 +204,10 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
   const check = ctx.pending.length === 0 && ctx.findingCheck?.findingId === ctx.findingId ? ctx.findingCheck : null;
 
   return (
-    <div className="mx-auto max-w-3xl pb-28">
+    // Room below the last element for the fixed action bar: its measured height (see ActionBar) and a margin.
+    <div className="mx-auto max-w-3xl pb-[calc(var(--action-bar-h,6rem)+2rem)]">
       <div className="mb-4 flex flex-wrap items-center justify-between gap-3">
-        <p className="text-sm text-muted">
+        <p className="text-base text-muted">
           {initialView.tree.title} · v{initialView.tree.version}
           {!finding && <> · step {items.length + 1}</>}
         </p>
@@ -216,11 +223,7 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
         {ctx.notice && (
           <p className="flex items-start justify-between gap-3 rounded-lg border-2 border-ink bg-sunken px-4 py-3" data-testid="notice">
             <span>{ctx.notice}</span>
-            <button
-              type="button"
-              className="btn-quiet min-h-0 px-2 py-1 text-sm underline"
-              onClick={() => send({ type: 'notice.dismiss' })}
-            >
+            <button type="button" className="btn-quiet px-3 text-base underline" onClick={() => send({ type: 'notice.dismiss' })}>
               Dismiss
             </button>
           </p>
@@ -241,6 +244,8 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
         <StepScreen
           key={`${step.id}:${items.length}`}
           step={step as MeasureStep | InspectStep | ActionStep}
+          diagnosisId={diagnosisId}
+          whyOpen={viewerRole === 'apprentice'}
           energy={ctx.energy}
           displayUnits={displayUnits}
           transformerVa={transformerVa}
@@ -255,6 +260,14 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
   );
 }
 
+/** Why undo is not offered: a closed or referred call, or a diagnosis already signed off. */
+function undoLockedReason(view: DiagnosisViewOut): string | null {
+  if (view.callStatus === 'closed' || view.callStatus === 'referred')
+    return `The call is ${view.callStatus}: its answers stay as they are.`;
+  if (view.signedOff) return 'This diagnosis is signed off: its answers stay as they are.';
+  return null;
+}
+
 function EnergyLine({ energy }: { energy: 'energized' | 'locked-out' }) {
   return (
     <div className="flex items-center gap-3">
@@ -266,15 +279,25 @@ function EnergyLine({ energy }: { energy: 'energized' | 'locked-out' }) {
 
 interface StepScreenProps {
   step: MeasureStep | InspectStep | ActionStep;
+  diagnosisId: string;
+  whyOpen: boolean;
   energy: 'energized' | 'locked-out';
   displayUnits: UnitSystem;
   transformerVa: number | null;
   initial: ReadingValue | null;
   footer: React.ReactNode;
-  onAnswer: (answer: { stepId: string; text?: string; unit?: string; value?: number; choice?: string; confirmed?: boolean }) => void;
+  onAnswer: (answer: {
+    stepId: string;
+    text?: string;
+    unit?: string;
+    value?: number;
+    overRange?: true;
+    choice?: string;
+    confirmed?: boolean;
+  }) => void;
 }
 
-function StepScreen({ step, energy, displayUnits, transformerVa, initial, footer, onAnswer }: StepScreenProps) {
+function StepScreen({ step, diagnosisId, whyOpen, energy, displayUnits, transformerVa, initial, footer, onAnswer }: StepScreenProps) {
   const procedure = step.id.startsWith('lock-out--') || step.id.startsWith('re-energize--');
   return (
     <div className="flex flex-col gap-5">
@@ -285,7 +308,7 @@ function StepScreen({ step, energy, displayUnits, transformerVa, initial, footer
         <EnergyBadge energy={energy} />
       </div>
       {procedure && (
-        <p className="text-sm font-semibold uppercase tracking-wide text-muted">
+        <p className="text-base font-semibold uppercase tracking-wide text-muted">
           {step.id.startsWith('lock-out--') ? 'Lock-out procedure' : 'Re-energize procedure'}
         </p>
       )}
@@ -298,12 +321,13 @@ function StepScreen({ step, energy, displayUnits, transformerVa, initial, footer
       {step.kind === 'action' && (
         <ProcedureChecklist
           items={step.checklist}
+          storageKey={`${diagnosisId}:${step.id}`}
           confirmLabel="Confirm"
           onConfirm={() => onAnswer({ stepId: step.id, confirmed: true })}
         />
       )}
       {TIMELINE_STEPS.has(step.id) && <IgnitionTimeline />}
-      <WhyThisStep why={step.why} />
+      <WhyThisStep why={step.why} defaultOpen={whyOpen} />
       {footer}
     </div>
   );
@@ -328,13 +352,16 @@ function MeasureBody({
   }));
   const parsed = value.text.trim() === '' ? null : parseEntry(step, value);
   const save = () => {
-    if (parsed?.ok) onAnswer({ stepId: step.id, text: value.text.trim(), unit: value.unit, value: parsed.value });
+    if (!parsed?.ok) return;
+    // Over range has no value: the wire answer is `overRange: true`; "OL" stays as the text shown on the path.
+    if (parsed.overRange) onAnswer({ stepId: step.id, text: OVER_RANGE_ENTRY, unit: parsed.unit, overRange: true });
+    else onAnswer({ stepId: step.id, text: value.text.trim(), unit: value.unit, value: parsed.value });
   };
   return (
     <>
       <TestPoints step={step} />
       <ReadingEntry step={step} value={value} onChange={setValue} onSubmit={save} />
-      {step.bandsNote && <p className="text-sm text-muted">{step.bandsNote}</p>}
+      {step.bandsNote && <p className="text-base text-muted">{step.bandsNote}</p>}
       <ElectricalAids aids={step.aids} transformerVa={transformerVa} />
       <ActionBar hint={parsed?.ok ? undefined : 'Enter a reading to save it.'}>
         <button type="button" className="btn-primary min-w-[12rem] text-lg" disabled={!parsed?.ok} onClick={save}>

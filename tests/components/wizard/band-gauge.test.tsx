@@ -1,17 +1,36 @@
 import { render, screen } from '@testing-library/react';
 import { BandGauge } from '@/components/wizard/band-gauge';
-import { DEFAULT_TREE_GRAPH } from '@/lib/trees/default-tree';
 import type { MeasureStep } from '@/lib/trees/schema';
 
-const secondary = DEFAULT_TREE_GRAPH.steps.find((s) => s.id === 'transformer-secondary') as MeasureStep;
-const manifold = DEFAULT_TREE_GRAPH.steps.find((s) => s.id === 'manifold-pressure') as MeasureStep;
+// Bands of our own with the first built-in tree's values (demo values), so the checks do not move
+// when the built-in tree is revised.
+type GaugeStep = Pick<MeasureStep, 'id' | 'bands' | 'quantity'>;
+const secondary: GaugeStep = {
+  id: 'transformer-secondary',
+  quantity: 'vac',
+  bands: [
+    { to: 18, label: 'Low or no 24 V', verdict: 'below', outcome: 'a' },
+    { from: 18, to: 30, label: 'Normal 24 V', verdict: 'within', outcome: 'b' },
+    { from: 30, label: 'High', verdict: 'above', outcome: 'c' },
+  ],
+};
+const manifold: GaugeStep = {
+  id: 'manifold-pressure',
+  quantity: 'pressure',
+  bands: [
+    { to: 0.5, label: 'No outlet pressure', verdict: 'below', outcome: 'a' },
+    { from: 0.5, to: 3, label: 'Low manifold pressure', verdict: 'below', outcome: 'b' },
+    { from: 3, to: 4, label: 'About 3.5 inWC', verdict: 'within', outcome: 'c' },
+    { from: 4, label: 'High manifold pressure', verdict: 'above', outcome: 'd' },
+  ],
+};
 
 function position() {
   return Number(screen.getByTestId('gauge-marker').getAttribute('data-position'));
 }
 
 describe('band gauge', () => {
-  // The default transformer-secondary bands: under 18 V below, 18–30 V within, 30 V and up above.
+  // The demo transformer-secondary bands: under 18 V below, 18–30 V within, 30 V and up above.
   it.each([
     [5, 'below', 'Below'],
     [24, 'within', 'Within'],

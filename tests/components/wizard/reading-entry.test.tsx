@@ -2,11 +2,36 @@ import { render, screen } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { useState } from 'react';
 import { ReadingEntry, type ReadingValue } from '@/components/wizard/reading-entry';
-import { DEFAULT_TREE_GRAPH } from '@/lib/trees/default-tree';
-import type { MeasureStep } from '@/lib/trees/schema';
+import { measureStepSchema, type MeasureStep } from '@/lib/trees/schema';
 
-const gap = DEFAULT_TREE_GRAPH.steps.find((s) => s.id === 'spark-gap') as MeasureStep;
-const secondary = DEFAULT_TREE_GRAPH.steps.find((s) => s.id === 'transformer-secondary') as MeasureStep;
+// Steps of our own with the first built-in tree's bands (demo values), so the checks do not move
+// when the built-in tree is revised; parsed through the schema for its defaults.
+const gap: MeasureStep = measureStepSchema.parse({
+  id: 'spark-gap',
+  title: 'Spark gap',
+  energy: 'any',
+  kind: 'measure',
+  quantity: 'length',
+  points: ['Spark rod', 'Ground rod'],
+  bands: [
+    { to: 0.09, label: 'Too close', verdict: 'below', outcome: 'a' },
+    { from: 0.09, to: 0.16, label: 'About 1/8 in', verdict: 'within', outcome: 'b' },
+    { from: 0.16, label: 'Too wide', verdict: 'above', outcome: 'c' },
+  ],
+});
+const secondary: MeasureStep = measureStepSchema.parse({
+  id: 'transformer-secondary',
+  title: 'Transformer secondary',
+  energy: 'any',
+  kind: 'measure',
+  quantity: 'vac',
+  points: ['R', 'C'],
+  bands: [
+    { to: 18, label: 'Low or no 24 V', verdict: 'below', outcome: 'a' },
+    { from: 18, to: 30, label: 'Normal 24 V', verdict: 'within', outcome: 'b' },
+    { from: 30, label: 'High', verdict: 'above', outcome: 'c' },
+  ],
+});
 
 function Harness({ step, unit, onValue }: { step: MeasureStep; unit: string; onValue?: (v: ReadingValue) => void }) {
   const [value, setValue] = useState<ReadingValue>({ text: '', unit });
@@ -30,7 +55,7 @@ describe('reading entry: keypad and unit picker', () => {
       await user.click(screen.getByRole('button', { name: key }));
     }
     expect(screen.getByLabelText('Reading')).toHaveValue('1 1/8');
-    // 1 1/8 in is far above the spark-gap band of the default tree (0.09 to 0.16 in).
+    // 1 1/8 in is far above the demo spark-gap band (0.09 to 0.16 in).
     expect(screen.getByTestId('gauge-verdict')).toHaveAttribute('data-verdict', 'above');
     expect(screen.getByTestId('gauge-verdict')).toHaveTextContent('Above');
   });
@@ -57,10 +82,11 @@ describe('reading entry: keypad and unit picker', () => {
     expect(screen.getByTestId('gauge-verdict')).toHaveTextContent('3.2 mm');
   });
 
-  it('offers only the quantity’s units and takes the keyboard too (inputmode decimal)', async () => {
+  it('offers only the units that fit the step and takes the keyboard too (inputmode decimal)', async () => {
     render(<Harness step={secondary} unit="VAC" />);
-    const units = screen.getAllByRole('radio').map((r) => r.textContent?.replace('✓', ''));
-    expect(units).toEqual(['VAC', 'mVAC']);
+    // 24 V bands: volts only, no millivolts (lib/units unitsForStep), so no picker to choose from.
+    expect(screen.queryByRole('radiogroup', { name: 'Unit' })).toBeNull();
+    expect(screen.getByLabelText('Unit')).toHaveTextContent('VAC');
     expect(screen.getByLabelText('Reading')).toHaveAttribute('inputmode', 'decimal');
     // No fraction keys for volts.
     expect(screen.queryByRole('button', { name: 'Fraction slash' })).toBeNull();

@@ -18,7 +18,7 @@ export const dynamic = 'force-dynamic';
 // diagnosis that is not the user's.
 export default async function DiagnosisPage({ params }: { params: Promise<{ id: string; diagnosisId: string }> }) {
   const { id, diagnosisId } = await params;
-  const { scope } = await pageScope('diagnoses.get');
+  const { user, scope } = await pageScope('diagnoses.get');
   const view = await orNotFound(getDiagnosisView({ scope, id: diagnosisId }));
   if (view.callId !== id) notFound();
   const [record, company, call] = await Promise.all([
@@ -29,7 +29,7 @@ export default async function DiagnosisPage({ params }: { params: Promise<{ id: 
   const unit = await getUnit({ companyId: scope.companyId, id: call.unitId }).catch(() => null);
   return (
     <div>
-      <nav aria-label="Breadcrumb" className="mb-3 text-sm">
+      <nav aria-label="Breadcrumb" className="mb-3 text-base">
         <Link href={`/calls/${id}`} className="inline-flex min-h-touch items-center underline">
           ← {call.unitLabel} · {call.siteName}
         </Link>
@@ -43,6 +43,7 @@ export default async function DiagnosisPage({ params }: { params: Promise<{ id: 
         initialView={diagnosisViewSchema.parse(view)}
         displayUnits={company.displayUnits}
         transformerVa={unit?.transformerVa ?? null}
+        viewerRole={user.role}
       />
     </div>
   );
