@@ -1,6 +1,7 @@
 import { render, screen, waitFor, within } from '@testing-library/react';
 import userEvent from '@testing-library/user-event';
 import { NewCallForm, type PickerSite } from '@/components/calls/new-call-form';
+import { siteSchema } from '@/lib/validations/field';
 
 const router = { replace: vi.fn(), refresh: vi.fn(), push: vi.fn(), back: vi.fn(), forward: vi.fn(), prefetch: vi.fn() };
 vi.mock('next/navigation', () => ({ useRouter: () => router }));
@@ -93,6 +94,42 @@ describe('NewCallForm', () => {
     expect(group.getByText('Enter the address.')).toBeInTheDocument();
     expect(group.getByText('Enter a valid e-mail address.')).toBeInTheDocument();
     expect(props.createSite).not.toHaveBeenCalled();
+  });
+
+  it('adds a site with the optional customer e-mail left empty, with no error', async () => {
+    const user = userEvent.setup();
+    const created = { id: '3f1c0a52-5d0e-4c43-9a43-0f3b6f0d1a20', name: 'Birchfield duplex', address: '12 Mill Road', contactEmail: null };
+    const createSite = vi.fn().mockResolvedValue({ ok: true, data: created });
+    setup({ createSite });
+    await user.click(screen.getByRole('button', { name: 'Add a new site' }));
+    const group = within(screen.getByRole('group', { name: 'New site' }));
+    await user.type(group.getByLabelText('Site name'), created.name);
+    await user.type(group.getByLabelText('Address'), created.address);
+    await user.click(group.getByRole('button', { name: 'Add site' }));
+    await waitFor(() => expect(screen.getByRole('radio', { name: /Birchfield duplex/ })).toBeChecked());
+    // What the form sends is what the server's schema takes: no e-mail is null, never "".
+    expect(createSite).toHaveBeenCalledWith({ name: created.name, address: created.address, contactEmail: null });
+    expect(siteSchema.safeParse(createSite.mock.calls[0][0]).success).toBe(true);
+    expect(screen.queryByRole('alert')).toBeEmptyDOMElement();
+  });
+
+  it('shows a server refusal of the new site in words, beside its field', async () => {
+    const user = userEvent.setup();
+    const createSite = vi.fn().mockResolvedValue({
+      ok: false,
+      code: 'bad_request',
+      message: 'The customer e-mail address is at most 254 characters.',
+      fieldErrors: { contactEmail: ['The customer e-mail address is at most 254 characters.'] },
+    });
+    setup({ createSite });
+    await user.click(screen.getByRole('button', { name: 'Add a new site' }));
+    const group = within(screen.getByRole('group', { name: 'New site' }));
+    await user.type(group.getByLabelText('Site name'), 'Birchfield duplex');
+    await user.type(group.getByLabelText('Address'), '12 Mill Road');
+    await user.click(group.getByRole('button', { name: 'Add site' }));
+    expect(await group.findAllByText('The customer e-mail address is at most 254 characters.')).toHaveLength(2);
+    expect(group.getByLabelText('Customer e-mail')).toHaveAttribute('aria-invalid', 'true');
+    expect(screen.queryByText(/Invalid input/)).not.toBeInTheDocument();
   });
 
   it('checks the new unit’s rating and year', async () => {
