@@ -6,6 +6,7 @@ import { useRouter } from 'next/navigation';
 import { useState, useTransition } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
+import { ConfirmDialog } from '@/components/ui/confirm-dialog';
 import { Field, FormMessage, Select, TextInput } from '@/components/ui/field';
 import type { ActionResult, AdminUser } from '@/lib/validations/api';
 import { ROLE_LABELS, ROLES, type Role } from '@/lib/roles';
@@ -23,20 +24,46 @@ interface Props {
   updateUser: (input: unknown) => Promise<Result<unknown>>;
 }
 
+/** A change waiting for the admin's confirmation, with the words the dialog shows. */
+interface PendingChange {
+  user: AdminUserRow;
+  patch: UpdateUserInput;
+  title: string;
+  description: string;
+  confirmLabel: string;
+  done: string;
+}
+
 export function UsersAdmin({ users, currentUserId, createUser, updateUser }: Props) {
   const router = useRouter();
   const [status, setStatus] = useState<{ tone: 'ok' | 'error'; text: string } | null>(null);
   const [pending, startTransition] = useTransition();
   const [busyId, setBusyId] = useState<string | null>(null);
+  const [asking, setAsking] = useState<PendingChange | null>(null);
+  const [dialogError, setDialogError] = useState<string | null>(null);
 
-  function change(user: AdminUserRow, patch: UpdateUserInput, done: string) {
+  function confirmChange() {
+    if (!asking) return;
+    const { user, patch, done } = asking;
     setBusyId(user.id);
+    setDialogError(null);
     startTransition(async () => {
       const result = await updateUser({ id: user.id, patch });
       setBusyId(null);
-      setStatus(result.ok ? { tone: 'ok', text: done } : { tone: 'error', text: result.message });
-      if (result.ok) router.refresh();
+      if (!result.ok) {
+        setDialogError(result.message);
+        return;
+      }
+      setAsking(null);
+      setStatus({ tone: 'ok', text: done });
+      router.refresh();
     });
+  }
+
+  function ask(change: PendingChange) {
+    setStatus(null);
+    setDialogError(null);
+    setAsking(change);
   }
 
   return (
@@ -91,13 +118,18 @@ export function UsersAdmin({ users, currentUserId, createUser, updateUser }: Pro
                       id={`role-${user.id}`}
                       value={user.role}
                       disabled={self || busy}
-                      onChange={(e) =>
-                        change(
+                      onChange={(e) => {
+                        const role = e.target.value as Role;
+                        const label = ROLE_LABELS[role].toLowerCase();
+                        ask({
                           user,
-                          { role: e.target.value as Role },
-                          `${user.name} is now ${ROLE_LABELS[e.target.value as Role].toLowerCase()}.`,
-                        )
-                      }
+                          patch: { role },
+                          title: `Make ${user.name} ${/^[aeiou]/.test(label) ? 'an' : 'a'} ${label}?`,
+                          description: `${user.name} is signed out on every device at once and signs in again as ${label}, with what that role may do.`,
+                          confirmLabel: `Make ${label}`,
+                          done: `${user.name} is now ${label}.`,
+                        });
+                      }}
                       className="min-w-[10rem]"
                     >
                       {ROLES.map((r) => (
@@ -121,10 +153,24 @@ export function UsersAdmin({ users, currentUserId, createUser, updateUser }: Pro
                           className="btn-secondary text-sm"
                           disabled={busy}
                           onClick={() =>
-                            change(
-                              user,
-                              { active: !user.active },
-                              user.active ? `${user.name} is deactivated and signed out.` : `${user.name} is active again.`,
+                            ask(
+                              user.active
+                                ? {
+                                    user,
+                                    patch: { active: false },
+                                    title: `Deactivate ${user.name}?`,
+                                    description: `${user.name} is signed out on every device and can no longer sign in. Their calls and diagnoses stay on record. You can reactivate them later.`,
+                                    confirmLabel: 'Deactivate',
+                                    done: `${user.name} is deactivated and signed out.`,
+                                  }
+                                : {
+                                    user,
+                                    patch: { active: true },
+                                    title: `Reactivate ${user.name}?`,
+                                    description: `${user.name} can sign in again with their password, as ${ROLE_LABELS[user.role].toLowerCase()}.`,
+                                    confirmLabel: 'Reactivate',
+                                    done: `${user.name} is active again.`,
+                                  },
                             )
                           }
                         >
@@ -137,7 +183,16 @@ export function UsersAdmin({ users, currentUserId, createUser, updateUser }: Pro
                           type="button"
                           className="btn-quiet text-sm"
                           disabled={busy}
-                          onClick={() => change(user, { revokeSessions: true }, `${user.name}'s sessions were ended.`)}
+                          onClick={() =>
+                            ask({
+                              user,
+                              patch: { revokeSessions: true },
+                              title: `Sign ${user.name} out everywhere?`,
+                              description: `${user.name} is signed out on every device and signs in again with their password. Answers still waiting to be saved on a tablet stay on it until then.`,
+                              confirmLabel: 'Sign out everywhere',
+                              done: `${user.name} is signed out everywhere.`,
+                            })
+                          }
                         >
                           Sign out everywhere<span className="sr-only"> for {user.name}</span>
                         </button>
@@ -150,6 +205,17 @@ export function UsersAdmin({ users, currentUserId, createUser, updateUser }: Pro
           </tbody>
         </table>
       </section>
+      <ConfirmDialog
+        open={asking !== null}
+        title={asking?.title ?? ''}
+        description={<p>{asking?.description}</p>}
+        confirmLabel={asking?.confirmLabel ?? 'Confirm'}
+        busy={pending}
+        busyLabel="Saving…"
+        error={dialogError}
+        onConfirm={confirmChange}
+        onCancel={() => setAsking(null)}
+      />
       <CreateUserForm
         onCreate={async (values) => {
           const result = await createUser(values);
