@@ -9,6 +9,9 @@ import { NextResponse, type NextRequest } from 'next/server';
 const ALLOWED_METHODS = ['GET', 'HEAD', 'POST', 'PUT', 'PATCH', 'DELETE', 'OPTIONS'];
 const MAX_BODY_BYTES = 1024 * 1024;
 const BODYLESS = new Set(['GET', 'HEAD', 'OPTIONS']);
+// The app's icons and manifest (app/icon.svg, app/favicon.ico, app/apple-icon.png, app/manifest.ts,
+// public/icon-*.png): the sign-in page shows them too, so they are served without a session.
+const ICON_FILES = /^\/(?:favicon\.ico|icon\.svg|apple-icon\.png|manifest\.webmanifest|icon-(?:192|512)\.png)$/;
 
 /** 128 random bits, base64: a fresh nonce per request for the framework's scripts and our theme script. */
 function newNonce(): string {
@@ -76,7 +79,7 @@ export function proxy(request: NextRequest) {
   if (!api && !BODYLESS.has(request.method) && request.headers.has('transfer-encoding') && !request.headers.has('content-length')) {
     return refuse(411, 'length_required', 'A request to a page must say how long its body is (Content-Length).', csp);
   }
-  if (!api && pathname !== '/sign-in' && !request.cookies.has('pg_session')) {
+  if (!api && pathname !== '/sign-in' && !ICON_FILES.test(pathname) && !request.cookies.has('pg_session')) {
     const url = request.nextUrl.clone();
     url.pathname = '/sign-in';
     url.search = '';

@@ -169,6 +169,110 @@ export async function closeCall(
   return count > 0;
 }
 
+/**
+ * Reopens a closed or referred call; of several at once, exactly one does. It goes back to where
+ * its work stands: repaired when a repair is recorded, diagnosing when a diagnosis was started,
+ * else open.
+ */
+export async function reopenCall({ companyId, id }: { companyId: string; id: string }, trx: Knex = db): Promise<boolean> {
+  const count = await trx('service_calls')
+    .where({ id, company_id: companyId })
+    .whereIn('status', CLOSED_STATUSES as CallStatus[])
+    .update({
+      status: trx.raw(
+        `CASE WHEN repair_notes IS NOT NULL THEN 'repaired'
+              WHEN EXISTS (SELECT 1 FROM diagnoses d WHERE d.call_id = service_calls.id) THEN 'diagnosing'
+              ELSE 'open' END`,
+      ),
+      closed_at: null,
+      closed_by: null,
+    });
+  return count > 0;
+}
+
+/** Gives an open call to another technician, if it is still open and still with `from`; says whether it did. */
+export async function assignCall(
+  { companyId, id, from, to }: { companyId: string; id: string; from: string | null; to: string },
+  trx: Knex = db,
+): Promise<boolean> {
+  const q = trx('service_calls')
+    .where({ id, company_id: companyId })
+    .whereNotIn('status', CLOSED_STATUSES as CallStatus[]);
+  if (from) q.where('technician_id', from);
+  else q.whereNull('technician_id');
+  return (await q.update({ technician_id: to })) > 0;
+}
+
+export const CALL_EVENT_KINDS = ['closed', 'referred', 'reopened', 'reassigned', 'signed_off'] as const;
+export type CallEventKind = (typeof CALL_EVENT_KINDS)[number];
+
+export interface CallEvent {
+  id: string;
+  kind: CallEventKind;
+  at: Date;
+  actorName: string | null;
+  note: string | null;
+  diagnosisId: string | null;
+  fromName: string | null;
+  toName: string | null;
+}
+
+/** Records what happened to a call, in the unit of work that made it happen. */
+export async function recordCallEvent(
+  {
+    companyId,
+    callId,
+    kind,
+    actorId,
+    note = null,
+    diagnosisId = null,
+    fromUserId = null,
+    toUserId = null,
+  }: {
+    companyId: string;
+    callId: string;
+    kind: CallEventKind;
+    actorId: string;
+    note?: string | null;
+    diagnosisId?: string | null;
+    fromUserId?: string | null;
+    toUserId?: string | null;
+  },
+  trx: Knex = db,
+): Promise<void> {
+  await trx('call_events').insert({
+    company_id: companyId,
+    call_id: callId,
+    kind,
+    actor_id: actorId,
+    note,
+    diagnosis_id: diagnosisId,
+    from_user_id: fromUserId,
+    to_user_id: toUserId,
+  });
+}
+
+/** A call's record, oldest first. The caller has already checked that the scope reaches the call. */
+export async function listCallEvents({ companyId, callId }: { companyId: string; callId: string }, trx: Knex = db): Promise<CallEvent[]> {
+  const rows = await trx('call_events as e')
+    .leftJoin('users as a', 'a.id', 'e.actor_id')
+    .leftJoin('users as f', 'f.id', 'e.from_user_id')
+    .leftJoin('users as t', 't.id', 'e.to_user_id')
+    .where({ 'e.company_id': companyId, 'e.call_id': callId })
+    .orderBy([{ column: 'e.at' }, { column: 'e.id' }])
+    .select('e.*', 'a.name as actor_name', 'f.name as from_name', 't.name as to_name');
+  return rows.map((r) => ({
+    id: r.id,
+    kind: r.kind,
+    at: r.at,
+    actorName: r.actor_name ?? null,
+    note: r.note ?? null,
+    diagnosisId: r.diagnosis_id ?? null,
+    fromName: r.from_name ?? null,
+    toName: r.to_name ?? null,
+  }));
+}
+
 /** Field users of the company a call can be assigned to. */
 export async function listAssignees(
   { companyId }: { companyId: string },

@@ -7,6 +7,8 @@ export interface Company {
   name: string;
   officeEmail: string;
   displayUnits: 'us' | 'metric';
+  /** IANA time zone name, e.g. America/Toronto: every date is shown in it. */
+  timeZone: string;
 }
 
 interface CompanyRow {
@@ -14,6 +16,7 @@ interface CompanyRow {
   name: string;
   office_email: string;
   display_units: 'us' | 'metric';
+  time_zone: string;
 }
 
 const toCompany = (row: CompanyRow): Company => ({
@@ -21,6 +24,7 @@ const toCompany = (row: CompanyRow): Company => ({
   name: row.name,
   officeEmail: row.office_email,
   displayUnits: row.display_units,
+  timeZone: row.time_zone,
 });
 
 export async function getCompany({ id }: { id: string }): Promise<Company> {
@@ -34,11 +38,18 @@ export async function updateCompany({
   patch,
 }: {
   id: string;
-  patch: { name: string; officeEmail: string; displayUnits: 'us' | 'metric' };
+  /** The time zone stays as it is when the patch does not name one (clients from before the setting). */
+  patch: { name: string; officeEmail: string; displayUnits: 'us' | 'metric'; timeZone?: string };
 }): Promise<Company> {
   const [row] = await db('companies')
     .where({ id })
-    .update({ name: patch.name, office_email: patch.officeEmail, display_units: patch.displayUnits, updated_at: db.fn.now() })
+    .update({
+      name: patch.name,
+      office_email: patch.officeEmail,
+      display_units: patch.displayUnits,
+      ...(patch.timeZone ? { time_zone: patch.timeZone } : {}),
+      updated_at: db.fn.now(),
+    })
     .returning('*');
   if (!row) throw notFound('That company');
   return toCompany(row);

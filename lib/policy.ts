@@ -25,6 +25,8 @@ const field = { apprentice: 'company', technician: 'company', lead: 'company', a
 const callWork = { apprentice: 'own', technician: 'supervised', lead: 'company', admin: 'company' } as const;
 const callSupervisors = { technician: 'supervised', lead: 'company', admin: 'company' } as const;
 const adminOnly = { admin: 'company' } as const;
+/** Who dispatches: reassigns calls and reopens closed ones. */
+const dispatchers = { lead: 'company', admin: 'company' } as const;
 
 export const POLICY = {
   'auth.signIn': { public: true },
@@ -52,6 +54,8 @@ export const POLICY = {
   'calls.get': { roles: callWork },
   'calls.recordRepair': { roles: callWork },
   'calls.close': { roles: callSupervisors },
+  'calls.reopen': { roles: dispatchers },
+  'calls.assign': { roles: dispatchers },
 
   'diagnoses.start': { roles: callWork },
   'diagnoses.get': { roles: callWork },

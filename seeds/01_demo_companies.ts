@@ -15,7 +15,12 @@ export async function seed(knex: Knex): Promise<void> {
     .insert({ name: 'Kestrel Valley Heating Co.', office_email: 'office@kestrel-valley.demo.test', display_units: 'us' })
     .returning('id');
   const [ironbark] = await knex('companies')
-    .insert({ name: 'Ironbark Comfort Services', office_email: 'desk@other.demo.test', display_units: 'metric' })
+    .insert({
+      name: 'Ironbark Comfort Services',
+      office_email: 'desk@other.demo.test',
+      display_units: 'metric',
+      time_zone: 'America/Vancouver',
+    })
     .returning('id');
 
   const people: [string, string, string, string][] = [

@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { CallStatusBadge } from '@/components/calls/call-status';
-import { formatDate } from '@/components/calls/format';
+import { Time } from '@/components/ui/time-zone';
 import { FormMessage } from '@/components/ui/field';
 import { may } from '@/lib/policy';
 import { ROLE_LABELS, type Role } from '@/lib/roles';
@@ -125,8 +125,8 @@ async function OpenCalls({ user }: { user: CurrentUser }) {
               >
                 <span>
                   <span className="font-semibold">{c.siteName}</span> · {c.unitLabel}
-                  <span className="block text-sm text-muted" suppressHydrationWarning>
-                    Opened {formatDate(c.openedAt)}
+                  <span className="block text-sm text-muted">
+                    Opened <Time value={c.openedAt} kind="date" />
                     {supervisor ? ` · ${c.technicianName ?? 'unassigned'}` : ''}
                   </span>
                 </span>

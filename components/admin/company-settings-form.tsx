@@ -5,9 +5,9 @@ import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
-import { Field, FormMessage, TextInput } from '@/components/ui/field';
+import { Field, FormMessage, Select, TextInput } from '@/components/ui/field';
 import type { ActionResult } from '@/lib/validations/api';
-import { companySettingsSchema } from '@/lib/validations/users';
+import { companySettingsSchema, TIME_ZONE_NAMES } from '@/lib/validations/users';
 
 type Input = z.input<typeof companySettingsSchema>;
 type Output = z.output<typeof companySettingsSchema>;
@@ -42,6 +42,21 @@ export function CompanySettingsForm({ initial, save }: { initial: Output; save: 
       </Field>
       <Field label="Office e-mail" error={formState.errors.officeEmail?.message} hint="Service reports are copied here.">
         {(a11y) => <TextInput {...a11y} type="email" {...register('officeEmail')} />}
+      </Field>
+      <Field
+        label="Time zone"
+        error={formState.errors.timeZone?.message}
+        hint="Every date in the app and on the service reports is shown in this zone, wherever the tablet is."
+      >
+        {(a11y) => (
+          <Select {...a11y} {...register('timeZone')}>
+            {TIME_ZONE_NAMES.map((zone) => (
+              <option key={zone} value={zone}>
+                {zone.replaceAll('_', ' ')}
+              </option>
+            ))}
+          </Select>
+        )}
       </Field>
       <fieldset>
         <legend className="label">Display units</legend>

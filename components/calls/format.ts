@@ -31,17 +31,48 @@ export const VERDICT_WORDS: Record<string, { word: string; icon: string }> = {
   above: { word: 'Above', icon: '▲' },
 };
 
-const DATE = new Intl.DateTimeFormat('en-US', { year: 'numeric', month: 'short', day: 'numeric' });
-const DATE_TIME = new Intl.DateTimeFormat('en-US', { year: 'numeric', month: 'short', day: 'numeric', hour: 'numeric', minute: '2-digit' });
-const TIME = new Intl.DateTimeFormat('en-US', { hour: 'numeric', minute: '2-digit', second: '2-digit' });
+// Dates: one format everywhere ("Dec 2, 2026" and "Dec 2, 2026, 3:41 PM EST"), always in the
+// company's time zone (a company setting), never the server's or the tablet's. With the zone given,
+// the server and the browser print the same text, so hydration never disagrees.
+
+/** The zone a company starts with (the migration's default). */
+export const DEFAULT_TIME_ZONE = 'America/Toronto';
+
+type DateKind = 'date' | 'dateTime' | 'time' | 'month' | 'year';
+const OPTIONS: Record<DateKind, Intl.DateTimeFormatOptions> = {
+  date: { year: 'numeric', month: 'short', day: 'numeric' },
+  dateTime: { year: 'numeric', month: 'short', day: 'numeric', hour: 'numeric', minute: '2-digit', timeZoneName: 'short' },
+  time: { hour: 'numeric', minute: '2-digit', second: '2-digit' },
+  month: { year: 'numeric', month: 'short' },
+  year: { year: 'numeric' },
+};
+const formatters = new Map<string, Intl.DateTimeFormat>();
+
+function formatter(kind: DateKind, timeZone: string): Intl.DateTimeFormat {
+  const key = `${kind}|${timeZone}`;
+  let f = formatters.get(key);
+  if (!f) {
+    try {
+      f = new Intl.DateTimeFormat('en-US', { ...OPTIONS[kind], timeZone });
+    } catch {
+      // A zone this runtime does not know (the setting is validated, so only an older runtime): the default's.
+      f = new Intl.DateTimeFormat('en-US', { ...OPTIONS[kind], timeZone: DEFAULT_TIME_ZONE });
+    }
+    formatters.set(key, f);
+  }
+  return f;
+}
+
+export const formatDate = (d: Date | string | number, timeZone: string) => formatter('date', timeZone).format(new Date(d));
+export const formatDateTime = (d: Date | string | number, timeZone: string) => formatter('dateTime', timeZone).format(new Date(d));
+export const formatTime = (d: Date | string | number, timeZone: string) => formatter('time', timeZone).format(new Date(d));
+export const formatMonth = (d: Date | string | number, timeZone: string) => formatter('month', timeZone).format(new Date(d));
+export const formatYear = (d: Date | string | number, timeZone: string) => formatter('year', timeZone).format(new Date(d));
+
 const RELATIVE = new Intl.RelativeTimeFormat('en-US', { numeric: 'auto' });
 
-export const formatDate = (d: Date | string) => DATE.format(new Date(d));
-export const formatDateTime = (d: Date | string) => DATE_TIME.format(new Date(d));
-export const formatTime = (d: Date | string) => TIME.format(new Date(d));
-
 /** "5 minutes ago", "yesterday", "3 months ago". */
-export function formatRelative(d: Date | string, now: number = Date.now()): string {
+export function formatRelative(d: Date | string, timeZone: string, now: number = Date.now()): string {
   const seconds = (new Date(d).getTime() - now) / 1000;
   const steps: [Intl.RelativeTimeFormatUnit, number][] = [
     ['second', 60],
@@ -56,5 +87,5 @@ export function formatRelative(d: Date | string, now: number = Date.now()): stri
     if (Math.abs(value) < size) return RELATIVE.format(Math.round(value), unit);
     value /= size;
   }
-  return formatDate(d);
+  return formatDate(d, timeZone);
 }

@@ -1,4 +1,5 @@
-import { formatDateTime, VERDICT_WORDS } from '@/components/calls/format';
+import { VERDICT_WORDS } from '@/components/calls/format';
+import { Time } from '@/components/ui/time-zone';
 
 export interface ReadingRow {
   id: string;
@@ -81,8 +82,8 @@ export function ReadingsTable({ readings, caption = 'Readings' }: { readings: Re
               <td className="py-2 pr-3">
                 <Verdict verdict={r.verdict} band={r.band} />
               </td>
-              <td className="py-2 text-sm" suppressHydrationWarning>
-                {formatDateTime(r.at)}
+              <td className="py-2 text-sm">
+                <Time value={r.at} />
               </td>
             </tr>
           ))}
@@ -103,8 +104,8 @@ export function ReadingsTable({ readings, caption = 'Readings' }: { readings: Re
               </span>
               <Verdict verdict={r.verdict} band={r.band} />
             </p>
-            <p className="text-sm text-muted" suppressHydrationWarning>
-              {formatDateTime(r.at)}
+            <p className="text-sm text-muted">
+              <Time value={r.at} />
             </p>
           </li>
         ))}

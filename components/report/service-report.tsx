@@ -30,7 +30,7 @@ function Meta({ items }: { items: [string, React.ReactNode][] }) {
   );
 }
 
-function StepLine({ step }: { step: PathStep }) {
+function StepLine({ step, timeZone }: { step: PathStep; timeZone: string }) {
   let answer: React.ReactNode;
   if (step.value !== null) {
     const typed = step.text ?? String(step.value);
@@ -60,7 +60,7 @@ function StepLine({ step }: { step: PathStep }) {
           {step.stepTitle}
         </p>
         <time className="text-sm text-muted print:text-black" dateTime={new Date(step.at).toISOString()}>
-          {formatTime(step.at)}
+          {formatTime(step.at, timeZone)}
         </time>
       </div>
       {step.points && (
@@ -82,7 +82,8 @@ function StepLine({ step }: { step: PathStep }) {
 
 /** The service report: a plain document that reads the same on a screen and on paper. */
 export function ServiceReport({ report }: { report: CallReport }) {
-  const { company, call, unit, site, diagnoses, cautions } = report;
+  const { company, call, unit, site, diagnoses, cautions, reasons } = report;
+  const tz = company.timeZone;
   const v = call.verification;
   return (
     <article className="mx-auto max-w-3xl space-y-6 rounded-xl border border-line bg-raised p-6 shadow-sm sm:p-10 print:max-w-none print:border-0 print:p-0 print:shadow-none">
@@ -93,7 +94,7 @@ export function ServiceReport({ report }: { report: CallReport }) {
         </div>
         <div className="sm:text-right print:text-right">
           <h1 className="text-2xl font-bold">Service report</h1>
-          <p className="text-muted print:text-black">{formatDate(call.closedAt ?? call.openedAt)}</p>
+          <p className="text-muted print:text-black">{formatDate(call.closedAt ?? call.openedAt, tz)}</p>
         </div>
       </header>
 
@@ -106,7 +107,7 @@ export function ServiceReport({ report }: { report: CallReport }) {
             ['Site', site.name],
             ['Address', site.address],
             ['Customer e-mail', site.contactEmail ?? '—'],
-            ['Opened', formatDateTime(call.openedAt)],
+            ['Opened', formatDateTime(call.openedAt, tz)],
             ['Technician', call.technicianName ?? '—'],
             ['Status', STATUS_LABELS[call.status]],
           ]}
@@ -140,8 +141,8 @@ export function ServiceReport({ report }: { report: CallReport }) {
           </h2>
           <p className="text-sm text-muted print:text-black">
             {d.treeTitle}, version {d.treeVersion} · by {d.startedBy ?? '—'}
-            {d.startedByRole ? ` (${d.startedByRole})` : ''} · started {formatDateTime(d.startedAt)}
-            {d.signedOff ? ` · signed off by ${d.signedOff.by}${d.signedOff.at ? `, ${formatDateTime(d.signedOff.at)}` : ''}` : ''}
+            {d.startedByRole ? ` (${d.startedByRole})` : ''} · started {formatDateTime(d.startedAt, tz)}
+            {d.signedOff ? ` · signed off by ${d.signedOff.by}${d.signedOff.at ? `, ${formatDateTime(d.signedOff.at, tz)}` : ''}` : ''}
           </p>
           {d.findingDetail && (
             <div className="space-y-2 rounded-lg border-2 border-ink p-4 print:break-inside-avoid">
@@ -180,7 +181,7 @@ export function ServiceReport({ report }: { report: CallReport }) {
             <h3 className="font-semibold">Path</h3>
             <ol>
               {d.steps.map((s) => (
-                <StepLine key={s.id} step={s} />
+                <StepLine key={s.id} step={s} timeZone={tz} />
               ))}
             </ol>
           </div>
@@ -238,9 +239,14 @@ export function ServiceReport({ report }: { report: CallReport }) {
         {call.closedByName && (
           <p className="text-muted print:text-black">
             {call.status === 'referred' ? 'Referred' : 'Closed'} by {call.closedByName}
-            {call.closedAt ? `, ${formatDateTime(call.closedAt)}` : ''}.
+            {call.closedAt ? `, ${formatDateTime(call.closedAt, tz)}` : ''}.
           </p>
         )}
+        {reasons.map((r, i) => (
+          <p key={i} className="text-muted print:text-black">
+            {r.kind === 'referred' ? 'Referred' : 'Reopened'} by {r.by ?? 'someone'}, {formatDateTime(r.at, tz)}: “{r.note}”
+          </p>
+        ))}
       </footer>
     </article>
   );

@@ -1,5 +1,7 @@
-/** The product mark: a copper gauge needle over a graphite arc. */
-export function Brand({ compact = false }: { compact?: boolean }) {
+import clsx from 'clsx';
+
+/** The product mark: a copper gauge needle over a graphite arc (the same drawing as app/icon.svg). */
+export function Brand({ compact = false, markOnlyFromMd = false }: { compact?: boolean; markOnlyFromMd?: boolean }) {
   return (
     <span className="inline-flex items-center gap-2 font-bold tracking-tight">
       <svg aria-hidden width="28" height="28" viewBox="0 0 32 32">
@@ -7,7 +9,8 @@ export function Brand({ compact = false }: { compact?: boolean }) {
         <path d="M16 22 L24 10" stroke="rgb(var(--copper))" strokeWidth="3.5" strokeLinecap="round" />
         <circle cx="16" cy="22" r="3.2" fill="rgb(var(--copper))" />
       </svg>
-      {!compact && <span className="text-lg">Proving Ground</span>}
+      {/* In the one-row top bar (tablets) the navigation needs the room: the name is then for screen readers only. */}
+      {!compact && <span className={clsx('text-lg', markOnlyFromMd && 'md:sr-only')}>Proving Ground</span>}
     </span>
   );
 }

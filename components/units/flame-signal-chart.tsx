@@ -3,7 +3,8 @@
 import { useMemo } from 'react';
 import { CartesianGrid, Legend, Line, LineChart, ReferenceArea, ReferenceLine, ResponsiveContainer, Tooltip, XAxis, YAxis } from 'recharts';
 import { formatDate } from '@/components/calls/format';
-import { lowLimitOf, summarizeFlame, type FlameBand, type FlamePoint } from '@/components/units/flame-summary';
+import { useTimeZone } from '@/components/ui/time-zone';
+import { lowLimitOf, summarizeFlame, timeAxis, type FlameBand, type FlamePoint } from '@/components/units/flame-summary';
 
 const INK = 'rgb(var(--ink))';
 const MUTED = 'rgb(var(--muted))';
@@ -16,27 +17,20 @@ interface Props {
   bands: FlameBand[];
 }
 
-const YEAR = new Intl.DateTimeFormat('en-US', { year: 'numeric' });
-
 /** The flame signal across visits: the fouling trend of a rod reads as a falling line towards the low band. */
 export function FlameSignalChart({ diagnosis, afterRepair, bands }: Props) {
+  const timeZone = useTimeZone();
   const low = lowLimitOf(bands);
-  const summary = summarizeFlame(diagnosis, afterRepair, low);
+  const summary = summarizeFlame(diagnosis, afterRepair, low, timeZone);
   const toPoints = (list: FlamePoint[]) => list.map((p) => ({ t: Date.parse(p.at), value: p.value })).sort((a, b) => a.t - b.t);
   const during = useMemo(() => toPoints(diagnosis), [diagnosis]);
   const after = useMemo(() => toPoints(afterRepair), [afterRepair]);
   const all = [...during, ...after];
-  const hasData = all.length > 0;
-  const minT = Math.min(...all.map((p) => p.t));
-  const maxT = Math.max(...all.map((p) => p.t));
-  const pad = Math.max((maxT - minT) * 0.05, 30 * 86_400_000);
+  const axis = timeAxis(
+    all.map((p) => p.t),
+    timeZone,
+  );
   const yMax = Math.max(6, Math.ceil(Math.max(...all.map((p) => p.value), 0) + 1));
-  const ticks = useMemo(() => {
-    if (!hasData) return [];
-    const out: number[] = [];
-    for (let y = new Date(minT - pad).getUTCFullYear() + 1; Date.UTC(y, 0, 1) <= maxT + pad; y++) out.push(Date.UTC(y, 0, 1));
-    return out;
-  }, [hasData, minT, maxT, pad]);
 
   return (
     <figure className="space-y-3" aria-labelledby="flame-caption">
@@ -46,7 +40,7 @@ export function FlameSignalChart({ diagnosis, afterRepair, bands }: Props) {
       <p className="text-base" id="flame-summary">
         {summary}
       </p>
-      {hasData && (
+      {axis && (
         <div className="h-72 w-full sm:h-80" aria-hidden>
           <ResponsiveContainer width="100%" height="100%">
             <LineChart margin={{ top: 12, right: 16, bottom: 4, left: 0 }}>
@@ -65,9 +59,9 @@ export function FlameSignalChart({ diagnosis, afterRepair, bands }: Props) {
               <XAxis
                 type="number"
                 dataKey="t"
-                domain={[minT - pad, maxT + pad]}
-                ticks={ticks}
-                tickFormatter={(t: number) => YEAR.format(t)}
+                domain={axis.domain}
+                ticks={axis.ticks}
+                tickFormatter={axis.label}
                 stroke={MUTED}
                 tick={{ fill: INK, fontSize: 13 }}
                 allowDuplicatedCategory={false}
@@ -81,7 +75,7 @@ export function FlameSignalChart({ diagnosis, afterRepair, bands }: Props) {
                 label={{ value: 'µA', angle: -90, position: 'insideLeft', fill: INK, fontSize: 13 }}
               />
               <Tooltip
-                labelFormatter={(t) => formatDate(new Date(Number(t)))}
+                labelFormatter={(t) => formatDate(Number(t), timeZone)}
                 formatter={(v) => [`${v} µA`]}
                 contentStyle={{ background: 'rgb(var(--raised))', borderColor: LINE, color: INK }}
               />
@@ -115,7 +109,7 @@ export function FlameSignalChart({ diagnosis, afterRepair, bands }: Props) {
           </ResponsiveContainer>
         </div>
       )}
-      {hasData && (
+      {axis && (
         <details className="rounded-lg border border-line bg-surface p-3">
           <summary className="min-h-touch cursor-pointer content-center font-semibold">Values as a table</summary>
           <table className="mt-2 w-full text-left">
@@ -138,7 +132,7 @@ export function FlameSignalChart({ diagnosis, afterRepair, bands }: Props) {
                 .sort((a, b) => a.t - b.t)
                 .map((p, i) => (
                   <tr key={i} className="border-t border-line">
-                    <td className="py-1 pr-3">{formatDate(new Date(p.t))}</td>
+                    <td className="py-1 pr-3">{formatDate(p.t, timeZone)}</td>
                     <td className="py-1 pr-3">{p.kind}</td>
                     <td className="py-1 font-mono">
                       {p.value} µA{low !== null && p.value < low ? ' ▼ low' : ''}

@@ -3,6 +3,7 @@
 import Link from 'next/link';
 import { useId, useState } from 'react';
 import { FUEL_LABELS, IGNITION_LABELS, formatDate } from '@/components/calls/format';
+import { useTimeZone } from '@/components/ui/time-zone';
 import { TextInput } from '@/components/ui/field';
 
 export interface UnitsListSite {
@@ -24,6 +25,7 @@ export interface UnitsListSite {
 export function UnitsList({ sites }: { sites: UnitsListSite[] }) {
   const [query, setQuery] = useState('');
   const id = useId();
+  const timeZone = useTimeZone();
   const q = query.trim().toLowerCase();
   const shown = sites
     .map((s) => {
@@ -62,14 +64,14 @@ export function UnitsList({ sites }: { sites: UnitsListSite[] }) {
                   <div>
                     <Link
                       href={`/units/${u.id}`}
-                      className="text-lg font-semibold underline decoration-copper decoration-2 underline-offset-4"
+                      className="inline-flex min-h-touch items-center text-lg font-semibold underline decoration-copper decoration-2 underline-offset-4"
                     >
                       {u.label}
                     </Link>
-                    <p className="text-sm text-muted" suppressHydrationWarning>
+                    <p className="text-sm text-muted">
                       {IGNITION_LABELS[u.ignition]} · {FUEL_LABELS[u.fuel]} · <span className="font-mono">{u.transformerVa} VA</span>
                       {u.installYear ? ` · installed ${u.installYear}` : ''}
-                      {u.lastCallAt ? ` · last call ${formatDate(u.lastCallAt)}` : ' · no calls yet'}
+                      {u.lastCallAt ? ` · last call ${formatDate(u.lastCallAt, timeZone)}` : ' · no calls yet'}
                     </p>
                   </div>
                   <Link href={`/calls/new?unitId=${u.id}`} className="btn-secondary">

@@ -1,5 +1,17 @@
 import 'server-only';
-import { CLOSED_STATUSES, closeCall, createCall, getCall, listAssignees, listCalls, recordRepair } from '@/db/calls';
+import {
+  assignCall,
+  CLOSED_STATUSES,
+  closeCall,
+  createCall,
+  getCall,
+  listAssignees,
+  listCallEvents,
+  listCalls,
+  recordCallEvent,
+  recordRepair,
+  reopenCall,
+} from '@/db/calls';
 import { getCompany } from '@/db/companies';
 import { listAnswersForDiagnoses, listDiagnosesForCall } from '@/db/diagnoses';
 import { db } from '@/db/knex';
@@ -90,12 +102,18 @@ export async function finishCall({
   userId,
   id,
   outcome,
+  reason,
 }: {
   scope: Scope;
   userId: string;
   id: string;
   outcome: 'closed' | 'referred';
+  /** Why it is referred (required for a referral; the schema asks for it). */
+  reason?: string;
 }) {
+  if (outcome === 'referred' && !reason) {
+    throw new AppError('bad_request', 'Say why you refer the call.', { fieldErrors: { reason: ['Say why you refer the call.'] } });
+  }
   return db.transaction(async (trx) => {
     const call = await getCall({ scope, id, lock: 'update' }, trx);
     if (isClosed(call.status)) throw new AppError('conflict', 'This call is already closed.');
@@ -112,6 +130,56 @@ export async function finishCall({
     if (!(await closeCall({ companyId: scope.companyId, id, outcome, closedBy: userId }, trx))) {
       throw new AppError('conflict', 'This call is already closed.');
     }
+    await recordCallEvent(
+      { companyId: scope.companyId, callId: id, kind: outcome, actorId: userId, note: outcome === 'referred' ? reason : null },
+      trx,
+    );
+    return getCall({ scope, id }, trx);
+  });
+}
+
+/** A lead or admin reopens a closed or referred call, saying why; of several at once, one wins. */
+export async function reopenClosedCall({ scope, id, reason }: { scope: Scope; id: string; reason: string }) {
+  return db.transaction(async (trx) => {
+    const call = await getCall({ scope, id, lock: 'update' }, trx);
+    if (!isClosed(call.status) || !(await reopenCall({ companyId: scope.companyId, id }, trx))) {
+      throw new AppError('conflict', 'This call is not closed or referred, so there is nothing to reopen.');
+    }
+    await recordCallEvent({ companyId: scope.companyId, callId: id, kind: 'reopened', actorId: scope.userId, note: reason }, trx);
+    return getCall({ scope, id }, trx);
+  });
+}
+
+/** A lead or admin gives an open call to another active field user of the company. */
+export async function reassignCall({ scope, id, technicianId }: { scope: Scope; id: string; technicianId: string }) {
+  return db.transaction(async (trx) => {
+    const call = await getCall({ scope, id, lock: 'update' }, trx);
+    if (isClosed(call.status)) throw new AppError('conflict', 'This call is closed: reopen it before you reassign it.');
+    const assignees = await listAssignees({ companyId: scope.companyId }, trx);
+    if (!assignees.some((a) => a.id === technicianId)) {
+      throw new AppError('bad_request', 'That technician is not an active field user of your company.', {
+        fieldErrors: { technicianId: ['Choose someone from the list.'] },
+      });
+    }
+    if (call.technicianId === technicianId) {
+      throw new AppError('conflict', `The call is already with ${call.technicianName ?? 'that technician'}.`, {
+        fieldErrors: { technicianId: ['Choose someone else.'] },
+      });
+    }
+    if (!(await assignCall({ companyId: scope.companyId, id, from: call.technicianId, to: technicianId }, trx))) {
+      throw new AppError('conflict', 'The call changed while you were assigning it. Look again and retry.');
+    }
+    await recordCallEvent(
+      {
+        companyId: scope.companyId,
+        callId: id,
+        kind: 'reassigned',
+        actorId: scope.userId,
+        fromUserId: call.technicianId,
+        toUserId: technicianId,
+      },
+      trx,
+    );
     return getCall({ scope, id }, trx);
   });
 }
@@ -225,13 +293,14 @@ export async function getCallPage({ scope, id }: { scope: Scope; id: string }) {
 
   const closed = call.status === 'closed' || call.status === 'referred';
   const defaultTree = closed ? null : await getDefaultTreeVersion({ scope });
-  return { call, unit, site, diagnoses, readings, defaultTree, closed };
+  const events = await listCallEvents({ companyId: scope.companyId, callId: id });
+  return { call, unit, site, diagnoses, readings, defaultTree, closed, events };
 }
 export type CallPage = Awaited<ReturnType<typeof getCallPage>>;
 
 /** The service report: the call with every diagnosis's path, findings, repair, verification and the cautions observed. */
 export async function getCallReport({ scope, id }: { scope: Scope; id: string }) {
-  const { call, unit, site, diagnoses } = await getCallPage({ scope, id });
+  const { call, unit, site, diagnoses, events } = await getCallPage({ scope, id });
   const company = await getCompany({ id: scope.companyId });
   const cautions = new Map<string, Caution>();
   const paths = [];
@@ -255,7 +324,19 @@ export async function getCallReport({ scope, id }: { scope: Scope; id: string })
   }
   const order = ['DANGER', 'WARNING', 'CAUTION', 'NOTICE'];
   const observed = [...cautions.values()].sort((a, b) => order.indexOf(a.signal) - order.indexOf(b.signal));
-  return { company: { name: company.name, officeEmail: company.officeEmail }, call, unit, site, diagnoses: paths, cautions: observed };
+  // What the customer and the office read about a referral or a reopening: why.
+  const reasons = events
+    .filter((e) => (e.kind === 'referred' || e.kind === 'reopened') && e.note)
+    .map((e) => ({ kind: e.kind, at: e.at, by: e.actorName, note: e.note! }));
+  return {
+    company: { name: company.name, officeEmail: company.officeEmail, timeZone: company.timeZone },
+    call,
+    unit,
+    site,
+    diagnoses: paths,
+    cautions: observed,
+    reasons,
+  };
 }
 export type CallReport = Awaited<ReturnType<typeof getCallReport>>;
 

@@ -56,6 +56,7 @@ export const companySchema = z.object({
   name: z.string(),
   officeEmail: z.string(),
   displayUnits: z.enum(['us', 'metric']),
+  timeZone: z.string(),
 });
 export type CompanyOut = z.output<typeof companySchema>;
 

@@ -137,9 +137,45 @@ export const repairSchema = z.object(
 );
 export type RepairInput = z.infer<typeof repairSchema>;
 
-export const closeCallSchema = z.object(
+const REASON_MAX = 1000;
+
+export const closeCallSchema = z
+  .object(
+    {
+      outcome: z.enum(['closed', 'referred'], { error: 'Close the call, or refer it.' }).default('closed'),
+      /** Why the call is referred: the office acts on it. Kept with the call's record; ignored for a close. */
+      reason: multiLine({ label: 'The reason', max: REASON_MAX }).optional(),
+    },
+    { error: objectError('the outcome') },
+  )
+  .refine((v) => v.outcome !== 'referred' || Boolean(v.reason), {
+    path: ['reason'],
+    error: 'Say why you refer the call, e.g. "needs a new heat exchanger, office to quote".',
+    when: (payload) => payload.issues.length === 0,
+  });
+export type CloseCallInput = z.infer<typeof closeCallSchema>;
+
+export const reopenCallSchema = z.object(
   {
-    outcome: z.enum(['closed', 'referred'], { error: 'Close the call, or refer it.' }).default('closed'),
+    reason: multiLine({ label: 'The reason', max: REASON_MAX, required: 'Say why the call is reopened.' }),
   },
-  { error: objectError('the outcome') },
+  { error: objectError('the reopening') },
 );
+export type ReopenCallInput = z.infer<typeof reopenCallSchema>;
+
+export const assignCallSchema = z.object(
+  {
+    technicianId: z.uuid({ error: 'Choose a technician from the list.' }),
+  },
+  { error: objectError('the assignment') },
+);
+export type AssignCallInput = z.infer<typeof assignCallSchema>;
+
+/** A sign-off of a finding, with what the one signing off has to say about it (optional). */
+export const signOffSchema = z.object(
+  {
+    comment: multiLine({ label: 'The comment', max: REASON_MAX }).optional(),
+  },
+  { error: objectError('the sign-off') },
+);
+export type SignOffInput = z.infer<typeof signOffSchema>;

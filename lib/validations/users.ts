@@ -42,11 +42,23 @@ export const updateUserSchema = z
   });
 export type UpdateUserInput = z.infer<typeof updateUserSchema>;
 
+// The runtime's own list of IANA zones (canonical names), plus UTC, which it accepts but does not list.
+const TIME_ZONES: ReadonlySet<string> = new Set([...Intl.supportedValuesOf('timeZone'), 'UTC']);
+export const timeZoneSchema = z
+  .string({ error: 'Choose a time zone from the list.' })
+  .refine((v) => v.length <= 64, { error: 'A time zone name is at most 64 characters.', abort: true })
+  .refine((v) => TIME_ZONES.has(v), { error: 'Choose a time zone from the list, e.g. America/Toronto.' });
+
+/** Every zone the setting accepts, for the picker. */
+export const TIME_ZONE_NAMES: readonly string[] = [...TIME_ZONES].sort();
+
 export const companySettingsSchema = z.object(
   {
     name: singleLine({ label: 'The company name', max: 120, required: 'Enter the company name.' }),
     officeEmail: emailAddress({ label: 'The office e-mail address', required: 'Enter the office e-mail address.' }),
     displayUnits: z.enum(['us', 'metric'], { error: 'Choose US customary or metric.' }),
+    // Optional so that clients from before the setting keep working; left out, the zone stays as it is.
+    timeZone: timeZoneSchema.optional(),
   },
   { error: objectError('the company settings') },
 );

@@ -2,7 +2,15 @@
 
 import { actionOf } from '@/lib/server/operation';
 import { signOffDiagnosisOp, startDiagnosisOp } from '@/lib/server/operations/diagnoses';
-import { closeCallOp, createCallOp, createSiteOp, createUnitOp, recordRepairOp } from '@/lib/server/operations/field';
+import {
+  assignCallOp,
+  closeCallOp,
+  createCallOp,
+  createSiteOp,
+  createUnitOp,
+  recordRepairOp,
+  reopenCallOp,
+} from '@/lib/server/operations/field';
 
 export const createSiteAction = actionOf(createSiteOp);
 
@@ -17,3 +25,7 @@ export const saveRepairAction = actionOf(recordRepairOp, { revalidate: (input) =
 export const signOffAction = actionOf(signOffDiagnosisOp, { revalidate: (_, view) => [`/calls/${view.callId}`] });
 
 export const closeCallAction = actionOf(closeCallOp, { revalidate: (input) => [`/calls/${input.callId}`, '/calls'] });
+
+export const reopenCallAction = actionOf(reopenCallOp, { revalidate: (input) => [`/calls/${input.callId}`, '/calls'] });
+
+export const assignCallAction = actionOf(assignCallOp, { revalidate: (input) => [`/calls/${input.callId}`, '/calls'] });

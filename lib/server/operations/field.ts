@@ -2,11 +2,29 @@ import 'server-only';
 import { z } from 'zod';
 import { createSite, listSites } from '@/db/sites';
 import { createUnit, listUnits } from '@/db/units';
-import { findCalls, finishCall, getCallDetail, getUnitWithHistory, openCall, saveRepair } from '@/lib/server/calls';
+import {
+  findCalls,
+  finishCall,
+  getCallDetail,
+  getUnitWithHistory,
+  openCall,
+  reassignCall,
+  reopenClosedCall,
+  saveRepair,
+} from '@/lib/server/calls';
 import { defineOperation } from '@/lib/server/operation';
 import { noInput, recordId } from '@/lib/server/operations/shared';
 import { callDetailSchema, serviceCallSchema, siteOutSchema, unitHistorySchema, unitOutSchema } from '@/lib/validations/api';
-import { callFilterSchema, callSchema, closeCallSchema, repairSchema, siteSchema, unitSchema } from '@/lib/validations/field';
+import {
+  assignCallSchema,
+  callFilterSchema,
+  callSchema,
+  closeCallSchema,
+  reopenCallSchema,
+  repairSchema,
+  siteSchema,
+  unitSchema,
+} from '@/lib/validations/field';
 
 // GET /api/sites
 export const listSitesOp = defineOperation({
@@ -103,5 +121,22 @@ export const closeCallOp = defineOperation({
   name: 'calls.close',
   input: closeCallSchema.extend({ callId: recordId }),
   output: serviceCallSchema,
-  handler: async ({ scope, input }) => finishCall({ scope, userId: scope.userId, id: input.callId, outcome: input.outcome }),
+  handler: async ({ scope, input }) =>
+    finishCall({ scope, userId: scope.userId, id: input.callId, outcome: input.outcome, reason: input.reason }),
+});
+
+// POST /api/calls/{id}/reopen · reopenCallAction
+export const reopenCallOp = defineOperation({
+  name: 'calls.reopen',
+  input: reopenCallSchema.extend({ callId: recordId }),
+  output: serviceCallSchema,
+  handler: async ({ scope, input }) => reopenClosedCall({ scope, id: input.callId, reason: input.reason }),
+});
+
+// POST /api/calls/{id}/assign · assignCallAction
+export const assignCallOp = defineOperation({
+  name: 'calls.assign',
+  input: assignCallSchema.extend({ callId: recordId }),
+  output: serviceCallSchema,
+  handler: async ({ scope, input }) => reassignCall({ scope, id: input.callId, technicianId: input.technicianId }),
 });

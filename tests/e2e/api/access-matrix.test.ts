@@ -88,7 +88,21 @@ const ROUTES: Record<OperationName, RouteCase> = {
     body: () => ({ repairNotes: 'Cleaned the flame rod (matrix)', cycles: 3 }),
     rows: true,
   },
-  'calls.close': { method: 'POST', path: (r) => `/api/calls/${r.callId}/close`, body: () => ({ outcome: 'referred' }), rows: true },
+  'calls.close': {
+    method: 'POST',
+    path: (r) => `/api/calls/${r.callId}/close`,
+    body: () => ({ outcome: 'referred', reason: 'Needs the office (matrix)' }),
+    rows: true,
+  },
+  // Run after calls.close (policy order), so the call it reopens may well be referred by then.
+  'calls.reopen': {
+    method: 'POST',
+    path: (r) => `/api/calls/${r.callId}/reopen`,
+    body: () => ({ reason: 'Reopened by the matrix' }),
+    rows: true,
+  },
+  // To its own owner: a valid body whose answer (409 "already with", or 400 for a non-field owner) is the operation's own.
+  'calls.assign': { method: 'POST', path: (r) => `/api/calls/${r.callId}/assign`, body: (r) => ({ technicianId: r.userId }), rows: true },
   'diagnoses.start': {
     method: 'POST',
     path: (r) => `/api/calls/${r.callId}/diagnoses`,
@@ -109,7 +123,7 @@ const ROUTES: Record<OperationName, RouteCase> = {
 };
 
 // The calls and diagnoses a reach covers: the whole company, one's own, or (supervised) one's own and apprentices'.
-const CALL_ROWS = /^(calls\.(get|recordRepair|close)|diagnoses\.(start|get|answer|undo|signOff))$/;
+const CALL_ROWS = /^(calls\.(get|recordRepair|close|reopen|assign)|diagnoses\.(start|get|answer|undo|signOff))$/;
 
 interface Identity {
   label: string;

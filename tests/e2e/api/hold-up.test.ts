@@ -232,7 +232,7 @@ describe('saves under real parallel requests', () => {
     const tech = await signedIn(DEMO.technician);
     const call = await tech.post('/api/calls', { unitId, complaint: 'No heat (close race)' });
     const results = await Promise.all(
-      Array.from({ length: 5 }, () => tech.post(`/api/calls/${call.json.id}/close`, { outcome: 'referred' })),
+      Array.from({ length: 5 }, () => tech.post(`/api/calls/${call.json.id}/close`, { outcome: 'referred', reason: 'Part on order' })),
     );
     expect(results.map((r) => r.status).sort()).toEqual([200, 409, 409, 409, 409]);
   });

@@ -11,7 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ApiClient, DEMO, signedIn } from '../support/http';
 
 const RUNS = Number(process.env.HOSTILE_RUNS ?? 200);
-const TABLES = ['companies', 'users', 'sites', 'units', 'service_calls', 'diagnoses', 'answers'];
+const TABLES = ['companies', 'users', 'sites', 'units', 'service_calls', 'diagnoses', 'answers', 'call_events'];
 
 let db: Knex;
 let admin: ApiClient;
@@ -118,7 +118,12 @@ const TARGETS: Record<string, Target> = {
     method: 'PATCH',
     path: () => '/api/company',
     client: () => admin,
-    valid: () => ({ name: 'Kestrel Valley Heating Co.', officeEmail: 'office@kestrel.demo.test', displayUnits: 'us' }),
+    valid: () => ({
+      name: 'Kestrel Valley Heating Co.',
+      officeEmail: 'office@kestrel.demo.test',
+      displayUnits: 'us',
+      timeZone: 'America/Toronto',
+    }),
   },
   'POST /api/users': {
     method: 'POST',
@@ -187,6 +192,25 @@ const TARGETS: Record<string, Target> = {
     path: () => `/api/calls/${ids.call}/close`,
     client: () => tech,
     valid: () => ({ outcome: 'closed' }),
+  },
+  'POST /api/calls/{id}/assign': {
+    method: 'POST',
+    path: () => `/api/calls/${ids.call}/assign`,
+    client: () => admin,
+    valid: () => ({ technicianId: ids.user }),
+  },
+  // Last: a referral that gets through closes the call, and a reopen that gets through opens it again.
+  'POST /api/calls/{id}/close (refer)': {
+    method: 'POST',
+    path: () => `/api/calls/${ids.call}/close`,
+    client: () => tech,
+    valid: () => ({ outcome: 'referred', reason: 'Part on order' }),
+  },
+  'POST /api/calls/{id}/reopen': {
+    method: 'POST',
+    path: () => `/api/calls/${ids.call}/reopen`,
+    client: () => admin,
+    valid: () => ({ reason: 'The customer called back' }),
   },
 };
 

@@ -1,10 +1,13 @@
 import { z } from 'zod';
 import {
   answerSchema,
+  assignCallSchema,
   callFilterSchema,
   callSchema,
   closeCallSchema,
+  reopenCallSchema,
   repairSchema,
+  signOffSchema,
   siteSchema,
   startDiagnosisSchema,
   unitSchema,
@@ -198,6 +201,36 @@ describe('startDiagnosisSchema and closeCallSchema', () => {
   });
 });
 
+describe('referring, reopening, reassigning and signing off', () => {
+  it('a referral says why; a close needs no reason', () => {
+    expect(closeCallSchema.parse({ outcome: 'referred', reason: ' Part on order ' })).toEqual({
+      outcome: 'referred',
+      reason: 'Part on order',
+    });
+    for (const reason of [undefined, '', '   ']) {
+      expect(fieldErrors(closeCallSchema, { outcome: 'referred', reason }).fieldErrors.reason).toEqual([
+        'Say why you refer the call, e.g. "needs a new heat exchanger, office to quote".',
+      ]);
+    }
+    expect(closeCallSchema.parse({ outcome: 'closed' })).toEqual({ outcome: 'closed' });
+    expect(fieldErrors(closeCallSchema, { outcome: 'referred', reason: 'x'.repeat(1001) }).fieldErrors.reason).toEqual([
+      'The reason is at most 1000 characters.',
+    ]);
+  });
+
+  it('a reopening says why, an assignment names someone, a sign-off comment is optional', () => {
+    expect(fieldErrors(reopenCallSchema, {}).fieldErrors.reason).toEqual(['Say why the call is reopened.']);
+    expect(fieldErrors(reopenCallSchema, { reason: ' ' }).fieldErrors.reason).toEqual(['Say why the call is reopened.']);
+    expect(reopenCallSchema.parse({ reason: 'Part arrived' })).toEqual({ reason: 'Part arrived' });
+    expect(fieldErrors(assignCallSchema, { technicianId: '' }).fieldErrors.technicianId).toEqual(['Choose a technician from the list.']);
+    expect(assignCallSchema.parse({ technicianId: ID })).toEqual({ technicianId: ID });
+    expect(signOffSchema.parse({})).toEqual({});
+    expect(fieldErrors(signOffSchema, { comment: `ok${NUL}` }).fieldErrors.comment).toEqual([
+      'The comment cannot contain control characters.',
+    ]);
+  });
+});
+
 describe('answerSchema', () => {
   const answer = { clientId: ID, stepId: 'flame-signal', text: '4.2', unit: 'µA' };
 
@@ -304,6 +337,10 @@ describe('every refusal is in words', () => {
     ['answer', answerSchema, { clientId: 1, stepId: null, text: 1, unit: [], choice: {}, confirmed: 'x', extra: 1 }],
     ['repair', repairSchema, { repairNotes: 1, cycles: {}, flameSignal: 2, checks: [1, { text: 1, done: 1 }], notes: [] }],
     ['close', closeCallSchema, { outcome: 1 }],
+    ['refer', closeCallSchema, { outcome: 'referred', reason: [] }],
+    ['reopen', reopenCallSchema, { reason: 1 }],
+    ['assign', assignCallSchema, { technicianId: [] }],
+    ['sign-off', signOffSchema, { comment: {} }],
     ['site, as text', siteSchema, { name: 'n'.repeat(161), address: '\u0007', contactEmail: 'x'.repeat(300) }],
     [
       'unit, as text',

@@ -8,10 +8,13 @@ import { z } from 'zod';
 import { signInSchema } from '@/lib/validations/auth';
 import {
   answerSchema,
+  assignCallSchema,
   callFilterSchema,
   callSchema,
   closeCallSchema,
+  reopenCallSchema,
   repairSchema,
+  signOffSchema,
   siteSchema,
   startDiagnosisSchema,
   unitSchema,
@@ -177,7 +180,10 @@ const CASES: Record<string, Case> = {
       notes: 'Ok',
     },
   },
-  closeCallSchema: { schema: closeCallSchema, valid: { outcome: 'referred' } },
+  closeCallSchema: { schema: closeCallSchema, valid: { outcome: 'referred', reason: 'Part on order' } },
+  reopenCallSchema: { schema: reopenCallSchema, valid: { reason: 'The flame dropped out again' } },
+  assignCallSchema: { schema: assignCallSchema, valid: { technicianId: ID } },
+  signOffSchema: { schema: signOffSchema, valid: { comment: 'Readings agree with the finding.' } },
   signInSchema: { schema: signInSchema, valid: { email: 'lead@demo.test', password: 'x' }, secret: ['password'] },
   createUserSchema: {
     schema: createUserSchema,
@@ -185,7 +191,10 @@ const CASES: Record<string, Case> = {
     secret: ['password'],
   },
   updateUserSchema: { schema: updateUserSchema, valid: { name: 'Bo', role: 'lead', active: true, revokeSessions: true } },
-  companySettingsSchema: { schema: companySettingsSchema, valid: { name: 'Acme', officeEmail: 'office@acme.test', displayUnits: 'us' } },
+  companySettingsSchema: {
+    schema: companySettingsSchema,
+    valid: { name: 'Acme', officeEmail: 'office@acme.test', displayUnits: 'us', timeZone: 'America/Toronto' },
+  },
 };
 
 describe.each(Object.entries(CASES))('%s', (_, { schema, valid, secret = [] }) => {

@@ -1,5 +1,12 @@
 import { z } from 'zod';
-import { companySettingsSchema, createUserSchema, updateUserSchema, uuidSchema } from '@/lib/validations/users';
+import {
+  companySettingsSchema,
+  createUserSchema,
+  TIME_ZONE_NAMES,
+  timeZoneSchema,
+  updateUserSchema,
+  uuidSchema,
+} from '@/lib/validations/users';
 
 function refusal(schema: z.ZodType, input: unknown) {
   const result = schema.safeParse(input);
@@ -135,6 +142,31 @@ describe('companySettingsSchema', () => {
     expect(refusal(companySettingsSchema, { ...ok, officeEmail: `${'o'.repeat(250)}@acme.test` }).fieldErrors.officeEmail).toEqual([
       'The office e-mail address is at most 254 characters.',
     ]);
+  });
+});
+
+describe('the company time zone', () => {
+  const ok = { name: 'Acme', officeEmail: 'office@acme.test', displayUnits: 'us' };
+
+  it('takes an IANA zone the runtime knows, or UTC, and may be left out by older clients', () => {
+    expect(companySettingsSchema.parse({ ...ok, timeZone: 'America/Toronto' }).timeZone).toBe('America/Toronto');
+    expect(companySettingsSchema.parse({ ...ok, timeZone: 'America/Vancouver' }).timeZone).toBe('America/Vancouver');
+    expect(companySettingsSchema.parse({ ...ok, timeZone: 'UTC' }).timeZone).toBe('UTC');
+    expect(companySettingsSchema.parse(ok).timeZone).toBeUndefined();
+    expect(timeZoneSchema.safeParse('America/Toronto').success).toBe(true);
+  });
+
+  it('refuses anything else in words', () => {
+    for (const timeZone of ['Mars/Olympus_Mons', 'america/toronto', '', 'x'.repeat(65)]) {
+      const [message] = refusal(companySettingsSchema, { ...ok, timeZone }).fieldErrors.timeZone ?? [];
+      expect(message, timeZone).toMatch(/^(Choose a time zone from the list|A time zone name is at most 64 characters)/);
+    }
+    expect(refusal(companySettingsSchema, { ...ok, timeZone: 5 }).fieldErrors.timeZone).toEqual(['Choose a time zone from the list.']);
+  });
+
+  it('offers exactly the zones it accepts', () => {
+    expect(TIME_ZONE_NAMES).toContain('America/Toronto');
+    expect(TIME_ZONE_NAMES.every((zone) => timeZoneSchema.safeParse(zone).success)).toBe(true);
   });
 });
 

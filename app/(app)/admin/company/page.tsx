@@ -13,7 +13,7 @@ export default async function CompanyPage() {
     <div className="space-y-6">
       <h1 className="page-title">Company settings</h1>
       <CompanySettingsForm
-        initial={{ name: company.name, officeEmail: company.officeEmail, displayUnits: company.displayUnits }}
+        initial={{ name: company.name, officeEmail: company.officeEmail, displayUnits: company.displayUnits, timeZone: company.timeZone }}
         save={updateCompanyAction}
       />
     </div>

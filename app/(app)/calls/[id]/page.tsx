@@ -1,15 +1,32 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import { closeCallAction, saveRepairAction, signOffAction, startDiagnosisAction } from '@/app/(app)/calls/actions';
+import {
+  assignCallAction,
+  closeCallAction,
+  reopenCallAction,
+  saveRepairAction,
+  signOffAction,
+  startDiagnosisAction,
+} from '@/app/(app)/calls/actions';
 import { CallCaution } from '@/components/calls/call-caution';
-import { CloseCallControls, RepairForm, SignOffButton, StartDiagnosisButton } from '@/components/calls/call-controls';
+import { CallRecord } from '@/components/calls/call-record';
+import {
+  CloseCallControls,
+  ReassignCallControl,
+  RepairForm,
+  ReopenCallControls,
+  SignOffButton,
+  StartDiagnosisButton,
+} from '@/components/calls/call-controls';
 import { CallStatusBadge } from '@/components/calls/call-status';
-import { DIAGNOSIS_LABELS, formatDateTime } from '@/components/calls/format';
+import { DIAGNOSIS_LABELS } from '@/components/calls/format';
 import { ReadingsTable } from '@/components/calls/readings-table';
 import { UnitCard } from '@/components/calls/unit-card';
+import { BackLink } from '@/components/ui/back-link';
+import { Time } from '@/components/ui/time-zone';
 import { may } from '@/lib/policy';
 import { ROLE_LABELS, type Role } from '@/lib/roles';
-import { getCallPage } from '@/lib/server/calls';
+import { getCallPage, listCallAssignees } from '@/lib/server/calls';
 import { orNotFound, pageScope } from '@/lib/server/operation';
 
 export const metadata: Metadata = { title: 'Service call' };
@@ -21,9 +38,12 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
   const { user, scope } = await pageScope('calls.get');
   const { id } = await params;
   const page = await orNotFound(getCallPage({ scope, id }));
-  const { call, unit, site, diagnoses, readings, defaultTree, closed } = page;
+  const { call, unit, site, diagnoses, readings, defaultTree, closed, events } = page;
   const canSignOff = may(user.role, 'diagnoses.signOff');
   const canClose = may(user.role, 'calls.close');
+  const canReopen = may(user.role, 'calls.reopen');
+  const canAssign = may(user.role, 'calls.assign') && !closed;
+  const assignees = canAssign ? await listCallAssignees({ scope }) : [];
   const inProgress = diagnoses.find((d) => d.status === 'in_progress');
   const checks = [...new Set(diagnoses.flatMap((d) => d.finding?.verification ?? []))];
   const startReason = closed
@@ -35,18 +55,21 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
   return (
     <div className="space-y-6 pb-8">
       <div className="space-y-2">
-        <Link href="/calls" className="text-sm font-semibold text-muted underline underline-offset-4">
-          ← Service calls
-        </Link>
+        <BackLink href="/calls">Service calls</BackLink>
         <div className="flex flex-wrap items-start justify-between gap-3">
           <div>
             <h1 className="page-title">
               {site.name} · {unit.label}
             </h1>
-            <p className="text-muted" suppressHydrationWarning>
-              Opened {formatDateTime(call.openedAt)}
-              {call.closedAt &&
-                ` · ${call.status === 'referred' ? 'referred' : 'closed'} ${formatDateTime(call.closedAt)}${call.closedByName ? ` by ${call.closedByName}` : ''}`}
+            <p className="text-muted">
+              Opened <Time value={call.openedAt} />
+              {call.closedAt && (
+                <>
+                  {` · ${call.status === 'referred' ? 'referred' : 'closed'} `}
+                  <Time value={call.closedAt} />
+                  {call.closedByName ? ` by ${call.closedByName}` : ''}
+                </>
+              )}
             </p>
           </div>
           <CallStatusBadge status={call.status} />
@@ -66,6 +89,11 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
             {call.technicianName ?? 'Not assigned'}
             {call.technicianRole && <span className="block text-base text-muted">{ROLE_LABELS[call.technicianRole as Role]}</span>}
           </p>
+          {canAssign && (
+            <div className="mt-3">
+              <ReassignCallControl callId={call.id} currentId={call.technicianId} assignees={assignees} assignCall={assignCallAction} />
+            </div>
+          )}
         </div>
       </section>
 
@@ -111,7 +139,7 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
                           ? `In progress, ${d.answers} ${d.answers === 1 ? 'answer' : 'answers'} so far`
                           : 'Escalated'}
                     </p>
-                    <p className="text-sm" suppressHydrationWarning>
+                    <p className="text-sm">
                       <span className="inline-flex items-center gap-1 font-semibold">
                         <span aria-hidden className="font-mono">
                           {DIAGNOSIS_ICONS[d.status]}
@@ -120,18 +148,22 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
                       </span>
                       {' · '}
                       {d.startedBy ?? 'Someone'}
-                      {d.startedByRole ? ` (${d.startedByRole})` : ''}, started {formatDateTime(d.startedAt)}
+                      {d.startedByRole ? ` (${d.startedByRole})` : ''}, started <Time value={d.startedAt} />
                     </p>
                     {d.startedByRole === 'apprentice' && d.status === 'found' && (
                       <p className="text-sm font-semibold">
                         {d.signedOff ? (
-                          <span suppressHydrationWarning>
+                          <span>
                             <span aria-hidden>✓ </span>Signed off by {d.signedOff.by}
-                            {d.signedOff.at ? `, ${formatDateTime(d.signedOff.at)}` : ''}
+                            {d.signedOff.at && (
+                              <>
+                                , <Time value={d.signedOff.at} />
+                              </>
+                            )}
                           </span>
                         ) : (
                           <span>
-                            <span aria-hidden>⚠ </span>Needs a technician’s sign-off before the call can be closed
+                            <span aria-hidden>⚠ </span>Needs a technician’s or a lead’s sign-off before the call can be closed
                           </span>
                         )}
                       </p>
@@ -149,7 +181,7 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
                 </div>
                 {d.needsSignOff && canSignOff && d.startedById !== user.id && !closed && (
                   <div className="mt-3">
-                    <SignOffButton callId={call.id} diagnosisId={d.id} signOff={signOffAction} />
+                    <SignOffButton callId={call.id} diagnosisId={d.id} findingTitle={d.finding?.title} signOff={signOffAction} />
                   </div>
                 )}
               </li>
@@ -189,10 +221,22 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
         )}
         {!closed && canClose && <CloseCallControls callId={call.id} closeCall={closeCallAction} />}
         {!closed && !canClose && <p className="text-muted">A technician reviews your finding, signs it off and closes the call.</p>}
-        <Link href={`/calls/${call.id}/report`} className="btn-secondary">
-          Service report
-        </Link>
+        <div className="flex flex-wrap gap-2">
+          <Link href={`/calls/${call.id}/report`} className="btn-secondary">
+            Service report
+          </Link>
+          {closed && canReopen && <ReopenCallControls callId={call.id} reopenCall={reopenCallAction} />}
+        </div>
       </section>
+
+      {events.length > 0 && (
+        <section aria-labelledby="record-heading" className="card space-y-3">
+          <h2 id="record-heading" className="text-xl font-bold">
+            Record
+          </h2>
+          <CallRecord events={events} />
+        </section>
+      )}
     </div>
   );
 }

@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
 import { createCallAction, createSiteAction, createUnitAction } from '@/app/(app)/calls/actions';
 import { NewCallForm } from '@/components/calls/new-call-form';
+import { BackLink } from '@/components/ui/back-link';
 import { listCallAssignees, listSitesWithUnits } from '@/lib/server/calls';
 import { pageScope } from '@/lib/server/operation';
 
@@ -15,9 +15,7 @@ export default async function NewCallPage({ searchParams }: { searchParams: Prom
   return (
     <div className="mx-auto max-w-3xl space-y-6">
       <div>
-        <Link href="/calls" className="text-sm font-semibold text-muted underline underline-offset-4">
-          ← Service calls
-        </Link>
+        <BackLink href="/calls">Service calls</BackLink>
         <h1 id="new-call-title" className="page-title">
           New service call
         </h1>

@@ -4,8 +4,10 @@ import { CallStatusBadge } from '@/components/calls/call-status';
 import { formatDate } from '@/components/calls/format';
 import { ReadingsTable } from '@/components/calls/readings-table';
 import { UnitCard } from '@/components/calls/unit-card';
+import { BackLink } from '@/components/ui/back-link';
 import { FlameSignalChart } from '@/components/units/flame-signal-chart';
 import { getUnitPage } from '@/lib/server/calls';
+import { companyTimeZone } from '@/lib/server/company';
 import { orNotFound, pageScope } from '@/lib/server/operation';
 
 export const metadata: Metadata = { title: 'Unit' };
@@ -16,12 +18,11 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
   const { id } = await params;
   const page = await orNotFound(getUnitPage({ scope, id }));
   const { unit, site, visits, readings, flame } = page;
+  const timeZone = await companyTimeZone(scope.companyId);
   return (
     <div className="space-y-6 pb-8">
       <div className="space-y-2">
-        <Link href="/units" className="text-sm font-semibold text-muted underline underline-offset-4">
-          ← Units
-        </Link>
+        <BackLink href="/units">Units</BackLink>
         <div className="flex flex-wrap items-end justify-between gap-3">
           <div>
             <h1 className="page-title">{unit.label}</h1>
@@ -60,10 +61,13 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
               <li key={v.id} className="rounded-lg border border-line bg-surface p-3">
                 <div className="flex flex-wrap items-start justify-between gap-2">
                   <div className="min-w-0 flex-1">
-                    <p className="text-sm text-muted" suppressHydrationWarning>
-                      {formatDate(v.openedAt)} · {v.technicianName ?? 'Unassigned'}
+                    <p className="text-sm text-muted">
+                      {formatDate(v.openedAt, timeZone)} · {v.technicianName ?? 'Unassigned'}
                     </p>
-                    <Link href={`/calls/${v.id}`} className="font-semibold underline decoration-copper decoration-2 underline-offset-4">
+                    <Link
+                      href={`/calls/${v.id}`}
+                      className="inline-flex min-h-touch items-center font-semibold underline decoration-copper decoration-2 underline-offset-4"
+                    >
                       {v.complaint}
                     </Link>
                     <p className="mt-1">
@@ -96,13 +100,13 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
             const ofVisit = readings.filter((r) => r.callId === v.id).reverse();
             return (
               <details key={v.id} open={i === 0} className="rounded-lg border border-line">
-                <summary className="min-h-touch cursor-pointer content-center px-3 font-semibold" suppressHydrationWarning>
-                  {formatDate(v.openedAt)} · {ofVisit.length} {ofVisit.length === 1 ? 'reading' : 'readings'}
+                <summary className="min-h-touch cursor-pointer content-center px-3 font-semibold">
+                  {formatDate(v.openedAt, timeZone)} · {ofVisit.length} {ofVisit.length === 1 ? 'reading' : 'readings'}
                   <span className="font-normal text-muted"> · {v.findings.join('; ') || 'no finding'}</span>
                 </summary>
                 <div className="border-t border-line p-3">
                   <ReadingsTable
-                    caption={`Readings of the visit on ${formatDate(v.openedAt)}`}
+                    caption={`Readings of the visit on ${formatDate(v.openedAt, timeZone)}`}
                     readings={ofVisit.map((r) => ({
                       id: r.answerId,
                       stepTitle: r.stepTitle ?? r.stepId,

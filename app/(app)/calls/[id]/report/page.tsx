@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
 import { PrintButton } from '@/components/report/print-button';
 import { ServiceReport } from '@/components/report/service-report';
+import { BackLink } from '@/components/ui/back-link';
 import { getCallReport } from '@/lib/server/calls';
 import { orNotFound, pageScope } from '@/lib/server/operation';
 
@@ -15,9 +15,7 @@ export default async function ReportPage({ params }: { params: Promise<{ id: str
   return (
     <div className="space-y-4">
       <div className="no-print flex flex-wrap items-center justify-between gap-3">
-        <Link href={`/calls/${id}`} className="text-sm font-semibold text-muted underline underline-offset-4">
-          ← Back to the call
-        </Link>
+        <BackLink href={`/calls/${id}`}>Back to the call</BackLink>
         <PrintButton />
       </div>
       <ServiceReport report={report} />
