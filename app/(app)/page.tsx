@@ -137,7 +137,7 @@ async function OpenCalls({ user }: { user: CurrentUser }) {
         </ul>
       )}
       {calls.length > shown.length && (
-        <Link href="/calls" className="text-sm font-semibold underline underline-offset-4">
+        <Link href="/calls" className="inline-flex min-h-touch items-center font-semibold underline underline-offset-4">
           All {calls.length} open calls
         </Link>
       )}

@@ -73,7 +73,10 @@ export function CallsTable({ initialCalls, initialFilter = {}, technicianChoice,
         id: 'site',
         header: 'Site / unit',
         cell: ({ row }) => (
-          <Link href={`/calls/${row.original.id}`} className="font-semibold underline decoration-copper decoration-2 underline-offset-4">
+          <Link
+            href={`/calls/${row.original.id}`}
+            className="flex min-h-touch flex-col justify-center font-semibold underline decoration-copper decoration-2 underline-offset-4"
+          >
             {row.original.siteName}
             <span className="block font-normal text-muted">{row.original.unitLabel}</span>
           </Link>

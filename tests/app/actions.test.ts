@@ -41,11 +41,13 @@ const ACTIONS: [string, (raw: unknown) => Promise<ActionResult<unknown> & Outcom
   ['saveRepairAction', calls.saveRepairAction, 'calls.recordRepair'],
   ['signOffAction', calls.signOffAction, 'diagnoses.signOff'],
   ['closeCallAction', calls.closeCallAction, 'calls.close'],
+  ['reopenCallAction', calls.reopenCallAction, 'calls.reopen'],
+  ['assignCallAction', calls.assignCallAction, 'calls.assign'],
   ['submitAnswerAction', diagnoses.submitAnswerAction, 'diagnoses.answer'],
   ['undoAnswerAction', diagnoses.undoAnswerAction, 'diagnoses.undo'],
 ];
 
-const TABLES = ['companies', 'users', 'sites', 'units', 'service_calls', 'diagnoses', 'answers'];
+const TABLES = ['companies', 'users', 'sites', 'units', 'service_calls', 'diagnoses', 'answers', 'call_events'];
 async function checksum(): Promise<string> {
   const parts = [];
   for (const t of TABLES) {
@@ -137,6 +139,8 @@ describe('server actions', () => {
           'outcome',
           'repairNotes',
           'cycles',
+          'reason',
+          'technicianId',
         ),
         nasty,
       ),

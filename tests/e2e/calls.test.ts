@@ -1,6 +1,6 @@
 import { randomUUID } from 'node:crypto';
 import type { Page } from 'playwright-core';
-import { freshPage, launchBrowser, VIEWPORTS, type Browser } from '@/tests/e2e/support/browser';
+import { freshPage, launchBrowser, screenshot, VIEWPORTS, type Browser } from '@/tests/e2e/support/browser';
 import { CallPage, CallsListPage, NewCallPage, ReportPage, scrollsSideways, shootScreens, UnitPage } from '@/tests/e2e/support/calls-pages';
 import { DEMO, DEMO_PASSWORD, signedIn, unique, type ApiClient } from '@/tests/e2e/support/http';
 import { SignInPage } from '@/tests/e2e/support/pages';
@@ -257,11 +257,13 @@ describe('call page, report and unit history', () => {
     expect(await call.readings.locator('table tbody tr').count()).toBeGreaterThan(0);
     await call.close();
     await page.getByText('Record the repair and its verification before closing the call.').waitFor();
+    await call.dismissDialog();
     if (SHOOT) {
       await shootScreens(page, 'calls-detail-found', async () => {
         await call.close();
         await page.getByText('Record the repair and its verification before closing the call.').waitFor();
       });
+      await call.dismissDialog();
     }
 
     await call.recordRepair({ notes: 'Cleaned the flame rod and tightened the ground lead.', cycles: '4', flame: '4.2 µA', tickAll: true });
@@ -276,6 +278,50 @@ describe('call page, report and unit history', () => {
     await page.getByText('This call is closed: open a new call to diagnose again.').waitFor();
     if (SHOOT) await shootScreens(page, 'calls-detail-closed');
     await page.close();
+  });
+
+  it('refers a call with its reason behind a confirmation; a lead reopens it, and the record says who and why', async () => {
+    const created = await tech.post('/api/calls', { unitId: basementId, complaint: unique('Referral in the browser') });
+    const page = await signInAs(DEMO.technician);
+    const call = new CallPage(page);
+    await call.open(created.json.id);
+    await page.getByRole('button', { name: 'Refer' }).click();
+    await page.getByRole('dialog').getByRole('button', { name: 'Refer the call' }).click();
+    await page
+      .getByRole('dialog')
+      .getByText(/Say why you refer the call/)
+      .waitFor();
+    expect((await tech.get(`/api/calls/${created.json.id}`)).json.status).toBe('open');
+    await page.getByRole('dialog').getByLabel('Why refer it?').fill('Inducer motor on order');
+    await page.getByRole('dialog').getByRole('button', { name: 'Refer the call' }).click();
+    await page.getByText('The call is referred.').waitFor();
+    await page.getByText('“Inducer motor on order”').waitFor();
+    expect(await page.getByRole('button', { name: 'Reopen the call' }).count()).toBe(0);
+    await page.close();
+
+    const leadPage = await signInAs(DEMO.lead);
+    const asLead = new CallPage(leadPage);
+    await asLead.open(created.json.id);
+    await leadPage.setViewportSize(VIEWPORTS['tablet-landscape']);
+    await leadPage.getByRole('button', { name: 'Reopen the call' }).click();
+    await leadPage.getByRole('dialog').getByLabel('Why reopen it?').fill('The motor arrived');
+    if (SHOOT) await screenshot(leadPage, 'calls-reopen-dialog-tablet-landscape');
+    await leadPage.getByRole('dialog').getByRole('button', { name: 'Reopen' }).click();
+    await leadPage.getByText('“The motor arrived”').waitFor();
+    expect((await tech.get(`/api/calls/${created.json.id}`)).json.status).toBe('open');
+    // Every link, button and select of the call page is a 48 px target on the tablet.
+    const small = await leadPage.locator('main a, main button, main select').evaluateAll((els) =>
+      els
+        .filter((el) => (el as HTMLElement).offsetParent !== null && !el.closest('.sr-only'))
+        .filter((el) => el.getBoundingClientRect().height < 48)
+        .map(
+          (el) =>
+            `${el.tagName.toLowerCase()} "${(el.textContent ?? '').trim().slice(0, 40)}" ${Math.round(el.getBoundingClientRect().height)}px`,
+        ),
+    );
+    expect(small).toEqual([]);
+    if (SHOOT) await screenshot(leadPage, 'calls-reopened-tablet-landscape');
+    await leadPage.close();
   });
 
   it('shows the flame signal after repair refused with its reason when it does not parse', async () => {
@@ -334,7 +380,8 @@ describe('call page, report and unit history', () => {
     await call.open(created.json.id);
     await call.close();
     await page.getByText("An apprentice's finding needs a technician's sign-off before the call can be closed.").waitFor();
-    await page.getByRole('button', { name: 'Sign off this finding' }).click();
+    await call.dismissDialog();
+    await call.signOff('Readings agree with the finding.');
     await page.getByText(/Signed off by/).waitFor();
     await call.close();
     await page.getByText('The call is closed.').waitFor();

@@ -112,6 +112,14 @@ describe.each(ACCOUNTS)('signed in as $email', ({ email, role, firstName }) => {
     expect(await page.locator('aside nav[aria-label="Main"]').isVisible()).toBe(true);
     expect(await shell.nav.getByRole('link', { name: 'Home' }).getAttribute('aria-current')).toBe('page');
 
+    // A 1024 × 768 tablet: the side navigation gives its width to the page; the top bar carries it, in one row.
+    await page.setViewportSize(VIEWPORTS['tablet-landscape']);
+    expect(await page.locator('aside nav[aria-label="Main"]').isVisible()).toBe(false);
+    expect(await page.locator('header nav[aria-label="Main"]').isVisible()).toBe(true);
+    expect(await shell.navLabels()).toEqual(expected.map((item) => item.label));
+    expect((await page.locator('header').boundingBox())!.height).toBeLessThan(80);
+    expect(await smallTargets(page, 'a, button, select')).toEqual([]);
+
     // Phone width: the top bar carries the same navigation.
     await page.setViewportSize(VIEWPORTS.phone);
     expect(await shell.navLabels()).toEqual(expected.map((item) => item.label));

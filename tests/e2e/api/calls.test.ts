@@ -15,7 +15,7 @@ const people: Record<string, string> = {};
 
 async function newCall(complaint: string) {
   const call = await tech.post('/api/calls', { unitId, complaint });
-  expect(call.status, call.text).toBe(200);
+  expect(call.status, call.text).toBe(201);
   return call.json as { id: string; status: string; technicianId: string };
 }
 

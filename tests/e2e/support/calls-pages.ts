@@ -145,8 +145,29 @@ export class CallPage {
     await this.repair.getByRole('button', { name: 'Save repair and verification' }).click();
   }
 
+  /** Asks to close the call and confirms; a refusal stays in the dialog (dismiss it with `dismissDialog`). */
   async close(): Promise<void> {
     await this.page.getByRole('button', { name: 'Close call' }).click();
+    await this.page.getByRole('dialog').getByRole('button', { name: 'Close the call' }).click();
+  }
+
+  async signOff(comment?: string): Promise<void> {
+    await this.page.getByRole('button', { name: 'Sign off this finding' }).click();
+    const dialog = this.page.getByRole('dialog');
+    if (comment) await dialog.getByLabel('Comment (optional)').fill(comment);
+    await dialog.getByRole('button', { name: 'Sign off' }).click();
+  }
+
+  async refer(reason: string): Promise<void> {
+    await this.page.getByRole('button', { name: 'Refer' }).click();
+    const dialog = this.page.getByRole('dialog');
+    await dialog.getByLabel('Why refer it?').fill(reason);
+    await dialog.getByRole('button', { name: 'Refer the call' }).click();
+  }
+
+  async dismissDialog(): Promise<void> {
+    await this.page.keyboard.press('Escape');
+    await this.page.getByRole('dialog').waitFor({ state: 'hidden' });
   }
 }
 

@@ -107,11 +107,19 @@ export class UsersAdminPage {
 
   async changeRole(name: string, email: string, role: string): Promise<void> {
     await this.row(email).getByLabel(`Role of ${name}`).selectOption(role);
+    await this.page
+      .getByRole('dialog')
+      .getByRole('button', { name: /^Make / })
+      .click();
   }
 
   async toggleActive(name: string, email: string): Promise<void> {
     await this.row(email)
       .getByRole('button', { name: new RegExp(`^(Deactivate|Reactivate) ${name}$`) })
+      .click();
+    await this.page
+      .getByRole('dialog')
+      .getByRole('button', { name: /^(Deactivate|Reactivate)$/ })
       .click();
   }
 }
