@@ -137,7 +137,8 @@ function answerFor(step, random, findingIds) {
     return from[Math.floor(random() * from.length)];
   };
   if (step.kind === 'measure') {
-    const value = valueInBand(pick(step.bands));
+    // A band that asks for the reading again (leads reversed) is not an answer.
+    const value = valueInBand(pick(step.bands.filter((b) => b.outcome !== undefined)));
     return { clientId, stepId: step.id, text: String(Number(value.toFixed(4))), unit: step.unit };
   }
   if (step.kind === 'inspect') return { clientId, stepId: step.id, choice: pick(step.choices).value };
@@ -232,10 +233,10 @@ async function createAppClient(base, tree, n) {
       const ms = performance.now() - started;
       const ok = ok2xx(res.status);
       let finished = false;
-      if (ok && res.json?.next) client.current = { id: client.current.id, step: res.json.next };
+      if (ok && res.json?.next && !res.json.finding) client.current = { id: client.current.id, step: res.json.next };
       else {
-        // A finding ends the walk; after a failed save the diagnosis is in a state this client does not
-        // know, so it is left too.
+        // A finding ends the walk (the repair and its checks are not timed); after a failed save the
+        // diagnosis is in a state this client does not know, so it is left too.
         finished = ok;
         client.current = null;
       }

@@ -4,11 +4,11 @@ import { db } from '@/db/knex';
 import { isUuid } from '@/db/users';
 import { notFound } from '@/lib/errors';
 import type { Scope } from '@/lib/policy';
-import type { EnergyState } from '@/lib/trees/schema';
+import type { EnergyState, UnitFacts } from '@/lib/trees/schema';
 import type { CallStatus } from '@/lib/validations/field';
 import { scopeCalls } from '@/db/calls';
 
-export type DiagnosisStatus = 'in_progress' | 'found' | 'escalated';
+export type DiagnosisStatus = 'in_progress' | 'found' | 'verified' | 'escalated';
 
 export interface DiagnosisRecord {
   id: string;
@@ -29,6 +29,7 @@ export interface DiagnosisRecord {
   currentState: string | null;
   energy: EnergyState | null;
   lastSeq: number;
+  escalation: { note: string; by: string | null; at: Date | null } | null;
 }
 
 export interface AnswerRecord {
@@ -46,6 +47,8 @@ export interface AnswerRecord {
   verdict: string | null;
   choice: string | null;
   confirmed: boolean | null;
+  overRange: boolean;
+  auto: boolean;
   userId: string | null;
   createdAt: Date;
   undoneAt: Date | null;
@@ -68,9 +71,20 @@ const toDiagnosis = (r: Record<string, unknown>): DiagnosisRecord => ({
   startedAt: r.started_at as Date,
   finishedAt: (r.finished_at as Date | null) ?? null,
   currentState: (r.current_state as string | null) ?? null,
-  energy: (r.energy as EnergyState | null) ?? null,
+  energy: r.energy ? { electric: r.energy === 'locked-out' ? 'off' : 'on', gas: r.gas === 'off' ? 'off' : 'on' } : null,
   lastSeq: (r.last_seq as number) ?? 0,
+  escalation:
+    r.escalation_note != null
+      ? {
+          note: r.escalation_note as string,
+          by: (r.escalated_by_name as string | null) ?? null,
+          at: (r.escalated_at as Date | null) ?? null,
+        }
+      : null,
 });
+
+/** The columns of an energy state: `energy` (electricity, in the first revision's words) and `gas`. */
+const energyColumns = (energy: EnergyState) => ({ energy: energy.electric === 'off' ? 'locked-out' : 'energized', gas: energy.gas });
 
 const toAnswer = (r: Record<string, unknown>): AnswerRecord => ({
   id: r.id as string,
@@ -87,6 +101,8 @@ const toAnswer = (r: Record<string, unknown>): AnswerRecord => ({
   verdict: (r.verdict as string | null) ?? null,
   choice: (r.choice as string | null) ?? null,
   confirmed: (r.confirmed as boolean | null) ?? null,
+  overRange: r.over_range === true,
+  auto: r.auto === true,
   userId: (r.user_id as string | null) ?? null,
   createdAt: r.created_at as Date,
   undoneAt: (r.undone_at as Date | null) ?? null,
@@ -97,7 +113,8 @@ const diagnosisQuery = (trx: Knex) =>
   trx('diagnoses as d')
     .leftJoin('users as u', 'u.id', 'd.user_id')
     .leftJoin('users as so', 'so.id', 'd.signed_off_by')
-    .select('d.*', 'u.name as user_name', 'u.role as user_role', 'so.name as signed_off_by_name');
+    .leftJoin('users as esc', 'esc.id', 'd.escalated_by')
+    .select('d.*', 'u.name as user_name', 'u.role as user_role', 'so.name as signed_off_by_name', 'esc.name as escalated_by_name');
 
 /**
  * The call of a diagnosis, if the scope reaches it, with the call's row lock when asked: the first
@@ -106,16 +123,24 @@ const diagnosisQuery = (trx: Knex) =>
 export async function getCallOfDiagnosis(
   { scope, diagnosisId, lock }: { scope: Scope; diagnosisId: string; lock?: 'share' | 'update' },
   trx: Knex = db,
-): Promise<{ id: string; status: CallStatus; technicianId: string | null }> {
+): Promise<{ id: string; status: CallStatus; technicianId: string | null; unit: UnitFacts }> {
   if (!isUuid(diagnosisId)) throw notFound('That diagnosis');
-  const q = scopeCalls(trx('service_calls as c').join('diagnoses as d', 'd.call_id', 'c.id'), scope)
+  const q = scopeCalls(
+    trx('service_calls as c').join('diagnoses as d', 'd.call_id', 'c.id').join('units as un', 'un.id', 'c.unit_id'),
+    scope,
+  )
     .where({ 'd.id': diagnosisId, 'd.company_id': scope.companyId })
-    .select('c.id', 'c.status', 'c.technician_id');
+    .select('c.id', 'c.status', 'c.technician_id', 'un.ignition', 'un.fuel', 'un.control_supply', 'un.draft');
   if (lock === 'share') q.forShare('c');
   if (lock === 'update') q.forUpdate('c');
   const row = await q.first();
   if (!row) throw notFound('That diagnosis');
-  return { id: row.id, status: row.status, technicianId: row.technician_id ?? null };
+  return {
+    id: row.id,
+    status: row.status,
+    technicianId: row.technician_id ?? null,
+    unit: { ignition: row.ignition, fuel: row.fuel, controlSupply: row.control_supply, draft: row.draft ?? 'induced' },
+  };
 }
 
 /** Company scope only: the caller has checked (getCallOfDiagnosis) that the scope reaches its call. */
@@ -156,7 +181,7 @@ export async function createDiagnosis(
       tree_version_id: treeVersionId,
       user_id: userId,
       current_state: currentState,
-      energy,
+      ...energyColumns(energy),
     })
     .returning('id');
   return row.id;
@@ -190,9 +215,9 @@ export async function saveDiagnosisState(
     .update({
       status,
       finding_step_id: findingStepId,
-      finished_at: status === 'in_progress' ? null : trx.fn.now(),
+      finished_at: status === 'in_progress' || status === 'found' ? null : trx.fn.now(),
       current_state: currentState,
-      energy,
+      ...energyColumns(energy),
       last_seq: lastSeq,
       ...(clearSignOff ? { signed_off_by: null, signed_off_at: null } : {}),
     });
@@ -204,7 +229,8 @@ export async function signOffDiagnosis(
   trx: Knex = db,
 ): Promise<boolean> {
   const count = await trx('diagnoses')
-    .where({ id, company_id: companyId, status: 'found' })
+    .where({ id, company_id: companyId })
+    .whereIn('status', ['found', 'verified'])
     .whereNull('signed_off_by')
     .update({ signed_off_by: userId, signed_off_at: trx.fn.now() });
   return count > 0;
@@ -260,6 +286,8 @@ export interface NewAnswer {
   verdict?: string | null;
   choice?: string | null;
   confirmed?: boolean | null;
+  overRange?: boolean;
+  auto?: boolean;
 }
 
 /**
@@ -308,8 +336,53 @@ export async function insertAnswer(
     verdict: answer.verdict ?? null,
     choice: answer.choice ?? null,
     confirmed: answer.confirmed ?? null,
+    over_range: answer.overRange ?? false,
+    auto: answer.auto ?? false,
     response: JSON.stringify(response),
   });
+}
+
+/** Ends a diagnosis as escalated with the technician's note; only one still in progress (or at its finding). */
+export async function escalateDiagnosis(
+  { companyId, id, userId, note }: { companyId: string; id: string; userId: string; note: string },
+  trx: Knex = db,
+): Promise<boolean> {
+  const count = await trx('diagnoses')
+    .where({ id, company_id: companyId })
+    .whereIn('status', ['in_progress', 'found'])
+    .update({ status: 'escalated', escalation_note: note, escalated_by: userId, escalated_at: trx.fn.now(), finished_at: trx.fn.now() });
+  return count > 0;
+}
+
+/** Escalated diagnoses of the company not yet closed with their call, newest first: what the leads look at. */
+export async function listEscalations({ companyId, limit = 20 }: { companyId: string; limit?: number }, trx: Knex = db) {
+  const rows = await trx('diagnoses as d')
+    .join('service_calls as c', 'c.id', 'd.call_id')
+    .join('units as un', 'un.id', 'c.unit_id')
+    .join('sites as s', 's.id', 'un.site_id')
+    .leftJoin('users as esc', 'esc.id', 'd.escalated_by')
+    .where({ 'd.company_id': companyId, 'd.status': 'escalated' })
+    .whereNotIn('c.status', ['closed'])
+    .orderBy('d.escalated_at', 'desc')
+    .limit(limit)
+    .select(
+      'd.id',
+      'd.call_id',
+      'd.escalation_note',
+      'd.escalated_at',
+      'esc.name as escalated_by_name',
+      'un.label as unit_label',
+      's.name as site_name',
+    );
+  return rows.map((r: Record<string, unknown>) => ({
+    diagnosisId: r.id as string,
+    callId: r.call_id as string,
+    note: r.escalation_note as string,
+    at: r.escalated_at as Date,
+    by: (r.escalated_by_name as string | null) ?? null,
+    unit: r.unit_label as string,
+    site: r.site_name as string,
+  }));
 }
 
 /** Takes the answer off the path if it still is on it; says whether it did (one of two undos at once). */

@@ -15,6 +15,7 @@ export interface Unit {
   ignition: 'two-rod' | 'single-rod';
   fuel: 'natural-gas' | 'lp';
   controlSupply: '24v' | 'line';
+  draft: 'induced' | 'natural';
   transformerVa: number;
   installYear: number | null;
 }
@@ -43,6 +44,7 @@ const toUnit = (r: Record<string, unknown>): Unit => ({
   ignition: r.ignition as Unit['ignition'],
   fuel: r.fuel as Unit['fuel'],
   controlSupply: r.control_supply as Unit['controlSupply'],
+  draft: (r.draft as Unit['draft']) ?? 'induced',
   transformerVa: r.transformer_va as number,
   installYear: (r.install_year as number | null) ?? null,
 });
@@ -76,6 +78,7 @@ export async function createUnit({ companyId, input }: { companyId: string; inpu
       ignition: input.ignition,
       fuel: input.fuel,
       control_supply: input.controlSupply,
+      draft: input.draft,
       transformer_va: input.transformerVa,
       install_year: input.installYear ?? null,
     })

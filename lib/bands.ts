@@ -8,7 +8,8 @@ export interface BandMatch {
 }
 
 export interface ReadingEvaluation extends BandMatch {
-  outcome: string;
+  /** Where the reading leads; undefined for a band that asks for the reading again. */
+  outcome: string | undefined;
   verdict: Verdict;
   /** Where the value lies along the gauge drawn by `gaugeScale`, 0 (left) to 1 (right). */
   position: number;
@@ -33,11 +34,34 @@ export function bandContains(band: Pick<Band, 'from' | 'to'>, value: number): bo
   return (band.from === undefined || value >= band.from) && (band.to === undefined || value < band.to);
 }
 
-/** The first band holding the value. A validated band list has exactly one, so "first" is only a tie-break for unvalidated lists. */
+/**
+ * The first band holding the value. A validated band list has exactly one, so "first" is only a
+ * tie-break for unvalidated lists. +∞ (an ohms reading over range, "OL") lands in the band open above.
+ */
 export function findBand(bands: readonly Band[], value: number): BandMatch | null {
-  if (!Number.isFinite(value)) return null;
+  if (Number.isNaN(value)) return null;
   const index = bands.findIndex((band) => bandContains(band, value));
   return index === -1 ? null : { band: bands[index], index };
+}
+
+/**
+ * A step's bands in absolute terms: for bands relative to an earlier reading (`reference`), each
+ * limit plus that reading (or the reference's fallback when the walk did not take it).
+ */
+export function shiftedBands(step: Pick<MeasureStep, 'bands' | 'reference'>, readings: Readonly<Record<string, number>> = {}): Band[] {
+  if (!step.reference) return step.bands;
+  const taken = readings[step.reference.step];
+  const base = taken !== undefined && Number.isFinite(taken) ? taken : step.reference.fallback;
+  return step.bands.map((b) => ({
+    ...b,
+    ...(b.from !== undefined ? { from: round(b.from + base) } : {}),
+    ...(b.to !== undefined ? { to: round(b.to + base) } : {}),
+  }));
+}
+
+/** Sums of decimal limits and readings (24.3 − 2) without binary noise (22.299999…). */
+function round(x: number): number {
+  return Math.round(x * 1e9) / 1e9;
 }
 
 // Readings of these are magnitudes: a gauge below zero would only waste room. DC volts and
@@ -81,9 +105,13 @@ export function gaugePosition(scale: Pick<GaugeScale, 'min' | 'max'>, value: num
   return clamp01((value - scale.min) / (scale.max - scale.min));
 }
 
-/** Throws when no band holds the value: a validated step's bands cover the whole number line. */
-export function evaluateReading(step: MeasureStep, value: number): ReadingEvaluation {
-  const match = findBand(step.bands, value);
+/**
+ * Throws when no band holds the value: a validated step's bands cover the whole number line.
+ * `readings` are the walk's earlier readings, for bands relative to one of them.
+ */
+export function evaluateReading(step: MeasureStep, value: number, readings?: Readonly<Record<string, number>>): ReadingEvaluation {
+  const bands = shiftedBands(step, readings);
+  const match = findBand(bands, value);
   if (!match) {
     throw new Error(`No band of step "${step.id}" holds the value ${value}`);
   }
@@ -91,7 +119,7 @@ export function evaluateReading(step: MeasureStep, value: number): ReadingEvalua
     ...match,
     outcome: match.band.outcome,
     verdict: match.band.verdict,
-    position: gaugePosition(gaugeScale(step), value),
+    position: gaugePosition(gaugeScale({ bands, quantity: step.quantity }), value),
   };
 }
 

@@ -62,6 +62,10 @@ export const POLICY = {
   'diagnoses.answer': { roles: callWork },
   'diagnoses.undo': { roles: callWork },
   'diagnoses.signOff': { roles: callSupervisors },
+  // "None of these fits": whoever walks the diagnosis may hand it to the leads.
+  'diagnoses.escalate': { roles: callWork },
+  // The escalations waiting for a lead (the home page of leads and admins).
+  'diagnoses.escalations': { roles: dispatchers },
 
   'trees.list': { roles: everyone },
   'treeVersions.get': { roles: everyone },

@@ -70,7 +70,9 @@ export const PLAUSIBLE_RANGES: Record<Quantity, { min: number; max: number; why:
   // A little negative allows for leads reversed on a DC check near zero.
   vdc: { min: -1, max: 600, why: 'small negatives for reversed leads; 600 V covers line voltage' },
   // Flame signals are a few microamps; a meter in series with reversed leads reads negative.
-  udc: { min: -50, max: 500, why: 'flame signals are a few microamps; reversed leads read negative' },
+  // Flame signals run from a fraction of a microamp to a few tens (TRADE.md: a few µA is good);
+  // 50 µA is already well beyond a flame, so 0.6 mA is a meter on the wrong range, not a reading.
+  udc: { min: -50, max: 50, why: 'flame signals are a few microamps, tens at most; reversed leads read negative' },
   // An open circuit shows as a very high value on some meters; 100 MΩ covers insulation checks.
   ohm: { min: 0, max: 1e8, why: 'resistance is never negative; an open circuit reads very high' },
   // Gaps, rod positions and clearances inside a furnace cabinet.

@@ -5,11 +5,12 @@
 // followed by the pending ones, so the wizard advances at once (optimistically) and along exactly
 // the path the server will take when the queue reaches it.
 import { assign, fromPromise, setup } from 'xstate';
-import { findBand } from '@/lib/bands';
-import type { Quantity, Step, TreeVersion, Verdict } from '@/lib/trees/schema';
-import { answerEvent, getStep, replayAnswers, stateIdOf, type DiagnosisAnswer } from '@/machines/diagnosis-machine';
+import { findBand, shiftedBands } from '@/lib/bands';
+import type { EnergyState, Quantity, Step, TreeVersion, UnitFacts, Verdict } from '@/lib/trees/schema';
+import { answerEvent, getStep, phaseOf, replayAnswers, stateIdOf, type DiagnosisAnswer } from '@/machines/diagnosis-machine';
 
-export type AnswerKind = 'measure' | 'inspect' | 'action';
+/** `fact`: a unit-record branch the server answered; `finding`: "the repair is done". */
+export type AnswerKind = 'measure' | 'inspect' | 'action' | 'fact' | 'finding';
 
 /** One answer as the wizard holds it; `clientId` makes a re-sent save idempotent on the server. */
 export interface WizardAnswer {
@@ -23,6 +24,8 @@ export interface WizardAnswer {
   /** An ohms reading over range ("OL", open circuit): sent as `overRange: true` without a value. */
   overRange?: true;
   choice?: string;
+  /** What the technician noted with a choice (a status light against the control's legend). */
+  note?: string;
   confirmed?: boolean;
 }
 
@@ -93,8 +96,10 @@ export interface WizardContext {
   pending: PendingAnswer[];
   /** The state id of the step on screen (a tree step or an inserted procedure). */
   stepId: string;
-  energy: 'energized' | 'locked-out';
+  energy: EnergyState;
   findingId: string | null;
+  /** The unit record's facts: the branches they answer are taken locally too while offline. */
+  unit?: UnitFacts;
   refusal: Refusal | null;
   /** Something the user should know that is not about one answer (a reload after a conflict, an undo that failed). */
   notice: string | null;
@@ -113,6 +118,7 @@ export interface WizardInput {
   /** A queue left in storage by an earlier page load (e.g. a reload during an outage). */
   pending?: PendingAnswer[];
   online?: boolean;
+  unit?: UnitFacts;
 }
 
 export type WizardEvent =
@@ -159,15 +165,15 @@ const asDiagnosisAnswer = (a: WizardAnswer): DiagnosisAnswer => ({
 
 interface Local {
   stepId: string;
-  energy: 'energized' | 'locked-out';
+  energy: EnergyState;
   findingId: string | null;
   /** How many of the answers replayed; fewer than given means the rest lead nowhere from here. */
   replayed: number;
 }
 
 /** Where the given answers lead on this tree version. */
-export function walkLocally(version: TreeVersion, answers: readonly WizardAnswer[]): Local {
-  const replay = replayAnswers(version, answers.map(asDiagnosisAnswer));
+export function walkLocally(version: TreeVersion, answers: readonly WizardAnswer[], unit?: UnitFacts): Local {
+  const replay = replayAnswers(version, answers.map(asDiagnosisAnswer), { unit });
   const snapshot = replay.snapshot;
   return {
     stepId: stateIdOf(snapshot.value) ?? version.graph.start,
@@ -181,16 +187,16 @@ export function walkLocally(version: TreeVersion, answers: readonly WizardAnswer
  * The queue after the server's path: answers the server already holds (same clientId) leave the
  * queue, and answers that no longer follow from the server's path are dropped.
  */
-export function reconcileQueue(version: TreeVersion, saved: readonly WizardAnswer[], pending: readonly PendingAnswer[]) {
+export function reconcileQueue(version: TreeVersion, saved: readonly WizardAnswer[], pending: readonly PendingAnswer[], unit?: UnitFacts) {
   const held = new Set(saved.map((a) => a.clientId));
   const waiting = pending.filter((p) => !held.has(p.clientId));
-  const local = walkLocally(version, [...saved, ...waiting]);
+  const local = walkLocally(version, [...saved, ...waiting], unit);
   const keep = Math.max(0, local.replayed - saved.length);
   return { pending: waiting.slice(0, keep), dropped: waiting.length - keep };
 }
 
-function derive(version: TreeVersion, saved: readonly WizardAnswer[], pending: readonly WizardAnswer[]) {
-  const { stepId, energy, findingId } = walkLocally(version, [...saved, ...pending]);
+function derive(version: TreeVersion, saved: readonly WizardAnswer[], pending: readonly WizardAnswer[], unit?: UnitFacts) {
+  const { stepId, energy, findingId } = walkLocally(version, [...saved, ...pending], unit);
   return { stepId, energy, findingId };
 }
 
@@ -200,12 +206,12 @@ function findingCheckOf(view: WizardView): FindingCheck | null {
 
 function applyView(context: WizardContext, view: WizardView) {
   const saved = view.path.map(toSavedAnswer);
-  const { pending, dropped } = reconcileQueue(context.version, saved, context.pending);
+  const { pending, dropped } = reconcileQueue(context.version, saved, context.pending, context.unit);
   return {
     saved,
     pending,
     findingCheck: findingCheckOf(view),
-    ...derive(context.version, saved, pending),
+    ...derive(context.version, saved, pending, context.unit),
     ...(dropped > 0
       ? {
           notice: `${dropped === 1 ? 'One answer' : `${dropped} answers`} no longer followed from where the diagnosis stands and ${dropped === 1 ? 'was' : 'were'} dropped.`,
@@ -254,7 +260,7 @@ export const wizardMachine = setup({
         attempts: 0,
       };
       const pending = [...context.pending, answer];
-      return { pending, refusal: null, notice: null, ...derive(context.version, context.saved, pending) };
+      return { pending, refusal: null, notice: null, ...derive(context.version, context.saved, pending, context.unit) };
     }),
     commit: assign(({ context }, params: { outcome: SaveOutcome }) => {
       if (params.outcome.type !== 'saved') return {};
@@ -264,11 +270,12 @@ export const wizardMachine = setup({
       const known = context.saved.some((s) => s.clientId === answer.clientId);
       // The server stores the text and unit it parsed; keep what the user typed if it said nothing.
       const saved = known ? context.saved : [...context.saved, { ...local, ...answer, text: answer.text ?? local?.text }];
-      const walked = derive(context.version, saved, pending);
+      const walked = derive(context.version, saved, pending, context.unit);
       // The save answers with the finding's check, so nothing is fetched again to show it.
+      const status = params.outcome.diagnosis?.status;
       const findingCheck =
-        params.outcome.diagnosis?.status === 'found' && pending.length === 0 && walked.findingId
-          ? { findingId: walked.findingId, contradictions: params.outcome.diagnosis.contradictions }
+        (status === 'found' || status === 'verified') && pending.length === 0 && walked.findingId
+          ? { findingId: walked.findingId, contradictions: params.outcome.diagnosis?.contradictions ?? [] }
           : null;
       return { saved, pending, attempts: 0, lastError: null, findingCheck, ...walked };
     }),
@@ -282,7 +289,7 @@ export const wizardMachine = setup({
         attempts: 0,
         lastError: null,
         refusal: head ? { stepId: head.stepId, message: params.outcome.message, text: head.text, unit: head.unit } : null,
-        ...derive(context.version, context.saved, pending),
+        ...derive(context.version, context.saved, pending, context.unit),
       };
     }),
     dropQueueForConflict: assign(({ context }, params: { outcome: SaveOutcome }) => {
@@ -293,7 +300,7 @@ export const wizardMachine = setup({
         attempts: 0,
         lastError: null,
         notice: `${params.outcome.message} The diagnosis was reloaded; answers not yet saved were dropped.`,
-        ...derive(context.version, context.saved, pending),
+        ...derive(context.version, context.saved, pending, context.unit),
       };
     }),
     holdForSignIn: assign(({ context }, params: { outcome: SaveOutcome }) => {
@@ -329,11 +336,15 @@ export const wizardMachine = setup({
   },
   guards: {
     canAnswer: ({ context, event }) => {
-      if (event.type !== 'answer.submit' || event.answer.stepId !== context.stepId || context.findingId) return false;
+      if (event.type !== 'answer.submit' || event.answer.stepId !== context.stepId) return false;
       const step = getStep(context.version, event.answer.stepId);
       if (!step) return false;
-      const replay = replayAnswers(context.version, [...context.saved, ...context.pending].map(asDiagnosisAnswer));
-      const made = answerEvent(step, asDiagnosisAnswer({ ...event.answer, clientId: '', kind: 'action' }));
+      const replay = replayAnswers(context.version, [...context.saved, ...context.pending].map(asDiagnosisAnswer), { unit: context.unit });
+      const made = answerEvent(
+        step,
+        asDiagnosisAnswer({ ...event.answer, clientId: '', kind: 'action' }),
+        phaseOf(context.version, context.stepId),
+      );
       return replay.ok && made.ok && replay.snapshot.can(made.event);
     },
     hasPending: ({ context }) => context.pending.length > 0,
@@ -353,13 +364,14 @@ export const wizardMachine = setup({
   id: 'wizard',
   context: ({ input }) => {
     const saved = input.view.path.map(toSavedAnswer);
-    const { pending } = reconcileQueue(input.version, saved, input.pending ?? []);
+    const { pending } = reconcileQueue(input.version, saved, input.pending ?? [], input.unit);
     return {
       diagnosisId: input.diagnosisId,
       version: input.version,
+      unit: input.unit,
       saved,
       pending,
-      ...derive(input.version, saved, pending),
+      ...derive(input.version, saved, pending, input.unit),
       refusal: null,
       notice: null,
       online: input.online ?? true,
@@ -382,8 +394,8 @@ export const wizardMachine = setup({
         assign(({ context, event }) => {
           const known = new Set(context.pending.map((p) => p.clientId));
           const merged = [...context.pending, ...event.pending.filter((p) => !known.has(p.clientId))];
-          const { pending } = reconcileQueue(context.version, context.saved, merged);
-          return { pending, ...derive(context.version, context.saved, pending) };
+          const { pending } = reconcileQueue(context.version, context.saved, merged, context.unit);
+          return { pending, ...derive(context.version, context.saved, pending, context.unit) };
         }),
         { type: 'persistQueue', params: ({ context }) => ({ pending: context.pending }) },
       ],
@@ -518,16 +530,28 @@ export interface PathItem {
   band?: string;
   verdict?: Verdict;
   choiceLabel?: string;
+  /** An inspect step's note (what the status light showed). */
+  note?: string;
   confirmed?: boolean;
   saved: boolean;
 }
 
+/** The latest reading of each measure step among the answers (bands relative to one of them use it). */
+export function readingsOf(answers: readonly Pick<WizardAnswer, 'stepId' | 'value'>[]): Record<string, number> {
+  const readings: Record<string, number> = {};
+  for (const a of answers) if (a.value !== undefined) readings[a.stepId] = a.value;
+  return readings;
+}
+
 export function pathItems(context: Pick<WizardContext, 'version' | 'saved' | 'pending'>): PathItem[] {
+  const readings: Record<string, number> = {};
   const item = (a: WizardAnswer & { band?: string | null; verdict?: string | null }, saved: boolean): PathItem => {
     const step = getStep(context.version, a.stepId);
+    const bands = step?.kind === 'measure' ? shiftedBands(step, readings) : [];
+    if (a.value !== undefined) readings[a.stepId] = a.value;
     // An over-range reading falls in the band open towards +infinity.
-    const open = step?.kind === 'measure' && a.overRange ? step.bands.findLast((x) => x.to === undefined) : undefined;
-    const local = open ? { band: open } : step?.kind === 'measure' && a.value !== undefined ? findBand(step.bands, a.value) : null;
+    const open = step?.kind === 'measure' && a.overRange ? bands.findLast((x) => x.to === undefined) : undefined;
+    const local = open ? { band: open } : step?.kind === 'measure' && a.value !== undefined ? findBand(bands, a.value) : null;
     return {
       clientId: a.clientId,
       stepId: a.stepId,
@@ -541,6 +565,8 @@ export function pathItems(context: Pick<WizardContext, 'version' | 'saved' | 'pe
       ...((a.band ?? local) ? { band: a.band ?? local?.band.label } : {}),
       ...((a.verdict ?? local) ? { verdict: (a.verdict ?? local?.band.verdict) as Verdict } : {}),
       ...(step?.kind === 'inspect' && a.choice ? { choiceLabel: step.choices.find((c) => c.value === a.choice)?.label ?? a.choice } : {}),
+      ...(step?.kind === 'fact' && a.choice ? { choiceLabel: step.cases.find((c) => c.value === a.choice)?.label ?? a.choice } : {}),
+      ...(step?.kind === 'inspect' && (a.note ?? a.text) ? { note: a.note ?? a.text } : {}),
       ...(a.confirmed !== undefined ? { confirmed: a.confirmed } : {}),
       saved,
     };

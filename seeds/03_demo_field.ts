@@ -1,5 +1,5 @@
 import type { Knex } from 'knex';
-import { CANONICAL_UNITS, treeGraphSchema } from '@/lib/trees/schema';
+import { CANONICAL_UNITS, treeGraphSchema, type UnitFacts } from '@/lib/trees/schema';
 import { scriptedWalk, type WalkScript } from '@/machines/scripted-walk';
 
 // Demo only (SEED_DEMO=true): invented sites, units and service calls for the two demo companies,
@@ -8,10 +8,9 @@ import { scriptedWalk, type WalkScript } from '@/machines/scripted-walk';
 
 type Id = { id: string };
 
-// Readings of a healthy DSI furnace up to the flame signal; each visit overrides what was wrong.
+// Readings of a healthy DSI furnace; each visit says what it saw during the trial and what was wrong.
 const HEALTHY: WalkScript = {
   'line-voltage': 121.4,
-  'control-supply': 'low-voltage-only',
   'control-line-voltage': 120.8,
   'transformer-secondary': 26.3,
   'transformer-primary': 120.6,
@@ -21,23 +20,33 @@ const HEALTHY: WalkScript = {
   'control-th-input': 25.7,
   'high-limit-across': 0.1,
   'rollout-continuity': 0.3,
+  'inducer-runs': 'runs',
+  'pressure-switch-across': 0.1,
+  'pressure-hose-inspect': 'clear',
+  'vent-inspect': 'clear',
+  'spark-listen': 'ticking',
   'spark-observe': 'at-gap',
   'spark-gap': 0.125,
   'rod-condition': 'good',
-  'fuel-type': 'natural-gas',
-  'lp-inlet-pressure': 11.2,
-  'lp-manifold-pressure': 10.4,
+  'valve-secondary': 25.8,
   'valve-voltage': 25.2,
   'control-valve-output': 25.6,
   'inlet-pressure': 7.1,
   'manifold-pressure': 3.5,
-  'burners-light': 'light',
-  'carry-over': 'carries',
+  'lp-inlet-pressure': 11.8,
+  'lp-manifold-pressure': 10.4,
+  'neutral-ground': 0.4,
+  'hot-ground': 121.1,
   'flame-signal': 4.8,
+  'control-flame-test': 'good',
+  'carry-over': 'carries',
   'rod-inspect': 'good',
   'burner-surface': 'clean',
+  'flame-lead-continuity': 0.2,
   'ground-path': 0.4,
 };
+
+type UnitRecord = { ignition: string; fuel: string; controlSupply: string; draft: string };
 
 export async function seed(knex: Knex): Promise<void> {
   if (process.env.SEED_DEMO !== 'true') return;
@@ -65,11 +74,7 @@ export async function seed(knex: Knex): Promise<void> {
     const [row] = await knex('sites').insert({ company_id: companyId, name, address, contact_email: contactEmail }).returning('id');
     return (row as Id).id;
   }
-  async function unit(
-    companyId: string,
-    siteId: string,
-    u: { label: string; ignition: string; fuel: string; controlSupply: string; va: number; year: number },
-  ) {
+  async function unit(companyId: string, siteId: string, u: UnitRecord & { label: string; va: number; year: number }) {
     const [row] = await knex('units')
       .insert({
         company_id: companyId,
@@ -78,12 +83,15 @@ export async function seed(knex: Knex): Promise<void> {
         ignition: u.ignition,
         fuel: u.fuel,
         control_supply: u.controlSupply,
+        draft: u.draft,
         transformer_va: u.va,
         install_year: u.year,
       })
       .returning('id');
+    units.set((row as Id).id, u);
     return (row as Id).id;
   }
+  const units = new Map<string, UnitRecord>();
 
   interface PastVisit {
     unitId: string;
@@ -120,15 +128,25 @@ export async function seed(knex: Knex): Promise<void> {
         closed_by: v.signedOffBy ?? v.by,
       })
       .returning('id');
-    const { answers, finding } = scriptedWalk(version, { ...HEALTHY, ...v.script });
+    const record = units.get(v.unitId)!;
+    // The visit went through the repair and its checks: the reading after the repair is its own answer.
+    const { answers, finding } = scriptedWalk(
+      version,
+      { ...HEALTHY, 'after:flame-signal': v.flameAfter, ...v.script },
+      { unit: record as UnitFacts, through: 'done' },
+    );
     const [diagnosis] = await knex('diagnoses')
       .insert({
         company_id: kestrel.id,
         call_id: (call as Id).id,
         tree_version_id: version.id,
         user_id: v.by,
-        status: 'found',
+        status: 'verified',
         finding_step_id: finding.id,
+        current_state: `done--${finding.id}`,
+        energy: 'energized',
+        gas: 'on',
+        last_seq: answers.length,
         started_at: new Date(opened.getTime() + 10 * 60_000),
         finished_at: new Date(opened.getTime() + (12 + answers.length * 2) * 60_000),
         signed_off_by: v.signedOffBy ?? null,
@@ -143,8 +161,10 @@ export async function seed(knex: Knex): Promise<void> {
         seq: i + 1,
         step_id: a.stepId,
         step_kind: a.step.kind,
-        text: a.value !== undefined ? String(a.value) : null,
+        text: a.overRange ? 'OL' : a.auto ? 'From the unit record' : a.value !== undefined ? String(a.value) : null,
         value: a.value ?? null,
+        over_range: a.overRange === true,
+        auto: a.auto === true,
         unit: a.step.kind === 'measure' ? CANONICAL_UNITS[a.step.quantity] : null,
         quantity: a.step.kind === 'measure' ? a.step.quantity : null,
         band_index: a.bandIndex ?? null,
@@ -169,6 +189,7 @@ export async function seed(knex: Knex): Promise<void> {
     ignition: 'two-rod',
     fuel: 'natural-gas',
     controlSupply: '24v',
+    draft: 'induced',
     va: 40,
     year: 2011,
   });
@@ -177,6 +198,7 @@ export async function seed(knex: Knex): Promise<void> {
     ignition: 'single-rod',
     fuel: 'natural-gas',
     controlSupply: 'line',
+    draft: 'induced',
     va: 75,
     year: 2016,
   });
@@ -185,6 +207,7 @@ export async function seed(knex: Knex): Promise<void> {
     ignition: 'two-rod',
     fuel: 'lp',
     controlSupply: '24v',
+    draft: 'natural',
     va: 40,
     year: 2009,
   });
@@ -193,6 +216,7 @@ export async function seed(knex: Knex): Promise<void> {
     ignition: 'single-rod',
     fuel: 'natural-gas',
     controlSupply: '24v',
+    draft: 'induced',
     va: 40,
     year: 2019,
   });
@@ -201,6 +225,7 @@ export async function seed(knex: Knex): Promise<void> {
     ignition: 'single-rod',
     fuel: 'natural-gas',
     controlSupply: '24v',
+    draft: 'induced',
     va: 40,
     year: 2019,
   });
@@ -211,7 +236,7 @@ export async function seed(knex: Knex): Promise<void> {
     on: '2021-01-14T08:30:00Z',
     complaint: 'No heat overnight; thermostat display on.',
     by: tech,
-    script: { 'fuse-output': 0.2 },
+    script: { 'trial-observe': 'no-spark', 'fuse-output': 0.2 },
     repair: 'Found a chafed thermostat cable shorting R to C at the cabinet entry. Re-routed and sleeved the cable, replaced the 3 A fuse.',
     flameAfter: 5.1,
   });
@@ -220,7 +245,7 @@ export async function seed(knex: Knex): Promise<void> {
     on: '2022-02-03T13:10:00Z',
     complaint: 'Furnace runs a few minutes then stops; house cold.',
     by: tech,
-    script: { 'control-th-input': 0.4, 'high-limit-across': 25.6 },
+    script: { 'trial-observe': 'no-spark', 'control-th-input': 0.4, 'high-limit-across': 25.6 },
     repair:
       'High limit open from overheating: filter completely clogged. Replaced the filter, checked the temperature rise, limit reset itself.',
     flameAfter: 4.2,
@@ -230,7 +255,7 @@ export async function seed(knex: Knex): Promise<void> {
     on: '2023-12-19T09:45:00Z',
     complaint: 'No heat; control locks out after three tries.',
     by: tech,
-    script: { 'flame-signal': 1.7, 'rod-inspect': 'dirty' },
+    script: { 'trial-observe': 'lights-drops', 'flame-signal': 1.7, 'rod-inspect': 'dirty' },
     repair: 'Flame rod coated with a white oxide layer. Cleaned with fine abrasive cloth, checked the ground lead.',
     flameAfter: 3.6,
   });
@@ -239,7 +264,7 @@ export async function seed(knex: Knex): Promise<void> {
     on: '2025-01-08T10:20:00Z',
     complaint: 'Intermittent no heat, worse on cold mornings.',
     by: appr,
-    script: { 'flame-signal': 1.2, 'rod-inspect': 'dirty' },
+    script: { 'trial-observe': 'lights-drops', 'flame-signal': 1.2, 'rod-inspect': 'dirty' },
     repair: 'Rod fouled again within a year; replaced the flame rod and asked the customer about the new humidifier nearby.',
     flameAfter: 4.9,
     signedOffBy: tech,
@@ -249,7 +274,7 @@ export async function seed(knex: Knex): Promise<void> {
     on: '2024-11-02T15:00:00Z',
     complaint: 'No heat in unit B.',
     by: appr,
-    script: { 'spark-observe': 'heard-not-seen', 'spark-lead-inspect': 'lead-broken' },
+    script: { 'trial-observe': 'no-spark', 'spark-lead-inspect': 'lead-broken' },
     repair: 'Spark lead broken inside its insulation near the control. Replaced the lead and routed it clear of the sheet-metal edge.',
     flameAfter: 4.4,
     signedOffBy: tech,
@@ -278,6 +303,7 @@ export async function seed(knex: Knex): Promise<void> {
     ignition: 'two-rod',
     fuel: 'natural-gas',
     controlSupply: '24v',
+    draft: 'induced',
     va: 40,
     year: 2014,
   });

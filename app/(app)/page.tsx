@@ -5,6 +5,7 @@ import { Time } from '@/components/ui/time-zone';
 import { FormMessage } from '@/components/ui/field';
 import { may } from '@/lib/policy';
 import { ROLE_LABELS, type Role } from '@/lib/roles';
+import { listEscalations } from '@/db/diagnoses';
 import { findCalls } from '@/lib/server/calls';
 import { requirePageUser, type CurrentUser } from '@/lib/server/guard';
 import { authorize } from '@/lib/server/operation';
@@ -76,6 +77,7 @@ export default async function HomePage({ searchParams }: { searchParams: Promise
         <h1 className="page-title">Good to see you, {user.name.split(' ')[0]}</h1>
         <p className="text-muted">{user.companyName}</p>
       </div>
+      {may(user.role, 'diagnoses.escalations') && <Escalations />}
       {may(user.role, 'calls.list') && <OpenCalls user={user} />}
       <ul className="grid gap-4 sm:grid-cols-2">
         {TILES[user.role].map((tile) => (
@@ -140,6 +142,41 @@ async function OpenCalls({ user }: { user: CurrentUser }) {
         <Link href="/calls" className="inline-flex min-h-touch items-center font-semibold underline underline-offset-4">
           All {calls.length} open calls
         </Link>
+      )}
+    </section>
+  );
+}
+
+/** Diagnoses the field handed on ("none of these fits"), on calls not closed yet: for leads and admins. */
+async function Escalations() {
+  const { scope } = await authorize('diagnoses.escalations');
+  const escalations = await listEscalations({ companyId: scope.companyId, limit: 5 });
+  return (
+    <section aria-labelledby="escalations" className="card space-y-3" data-testid="escalations">
+      <h2 id="escalations" className="text-lg font-bold">
+        Sent to the leads: <span className="font-mono">{escalations.length}</span>
+      </h2>
+      {escalations.length === 0 ? (
+        <p className="text-muted">No diagnosis is waiting for a lead.</p>
+      ) : (
+        <ul className="space-y-2">
+          {escalations.map((e) => (
+            <li key={e.diagnosisId}>
+              <Link
+                href={`/calls/${e.callId}`}
+                className="flex min-h-touch flex-col gap-1 rounded-lg border border-line bg-surface px-3 py-2 hover:border-copper"
+              >
+                <span>
+                  <span className="font-semibold">{e.site}</span> · {e.unit}
+                </span>
+                <span className="text-base">“{e.note}”</span>
+                <span className="text-base text-muted">
+                  {e.by ?? 'Someone'}, <Time value={e.at} />
+                </span>
+              </Link>
+            </li>
+          ))}
+        </ul>
       )}
     </section>
   );

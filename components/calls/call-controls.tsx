@@ -1,16 +1,13 @@
 'use client';
 
-import { zodResolver } from '@hookform/resolvers/zod';
 import clsx from 'clsx';
 import { useRouter } from 'next/navigation';
 import { forwardRef, useId, useRef, useState, useTransition, type FormEvent } from 'react';
-import { useForm } from 'react-hook-form';
-import { z } from 'zod';
 import { ConfirmDialog } from '@/components/ui/confirm-dialog';
-import { Field, FormMessage, Select, TextInput } from '@/components/ui/field';
+import { FormMessage, Select } from '@/components/ui/field';
 import { ROLE_LABELS, type Role } from '@/lib/roles';
 import type { ActionResult } from '@/lib/validations/api';
-import { assignCallSchema, closeCallSchema, reopenCallSchema, repairSchema, signOffSchema } from '@/lib/validations/field';
+import { assignCallSchema, closeCallSchema, reopenCallSchema, signOffSchema } from '@/lib/validations/field';
 
 type Result<T> = ActionResult<T>;
 type Act<T> = (input: unknown) => Promise<Result<T>>;
@@ -143,116 +140,6 @@ export function SignOffButton({
         </div>
       </ConfirmDialog>
     </div>
-  );
-}
-
-// The checklist is ticked as a list of texts and sent as { text, done } pairs.
-const repairFormSchema = repairSchema.extend({ ticked: z.array(z.string()).default([]) });
-type RepairIn = z.input<typeof repairFormSchema>;
-type RepairOut = z.output<typeof repairFormSchema>;
-
-export interface RepairRecord {
-  repairNotes: string | null;
-  verification: {
-    cycles: number;
-    flameSignal: { text: string; value: number } | null;
-    checks: { text: string; done: boolean }[];
-    notes?: string;
-  } | null;
-}
-
-/** The repair and verification record: what was done, how many heat cycles it ran, the flame signal after, the finding's checks. */
-export function RepairForm({
-  callId,
-  record,
-  checks,
-  readOnly,
-  saveRepair,
-}: {
-  callId: string;
-  record: RepairRecord;
-  /** The verification checks of the call's findings. */
-  checks: string[];
-  readOnly: boolean;
-  saveRepair: Act<{ status: string }>;
-}) {
-  const router = useRouter();
-  const [status, setStatus] = useState<{ tone: 'ok' | 'error'; text: string } | null>(null);
-  const done = new Set(record.verification?.checks.filter((c) => c.done).map((c) => c.text) ?? []);
-  const allChecks = [...new Set([...checks, ...(record.verification?.checks.map((c) => c.text) ?? [])])];
-  const { register, handleSubmit, formState, setError } = useForm<RepairIn, unknown, RepairOut>({
-    resolver: zodResolver(repairFormSchema),
-    defaultValues: {
-      repairNotes: record.repairNotes ?? '',
-      cycles: record.verification?.cycles ?? 3,
-      flameSignal: record.verification?.flameSignal?.text ?? '',
-      notes: record.verification?.notes ?? '',
-      ticked: allChecks.filter((c) => done.has(c)),
-      checks: [],
-    },
-  });
-
-  const onSubmit = handleSubmit(async ({ ticked, ...values }) => {
-    setStatus(null);
-    const result = await saveRepair({
-      callId,
-      ...values,
-      flameSignal: values.flameSignal || undefined,
-      notes: values.notes || undefined,
-      checks: allChecks.map((text) => ({ text, done: ticked.includes(text) })),
-    });
-    if (!result.ok) {
-      setStatus({ tone: 'error', text: result.message });
-      for (const [field, messages] of Object.entries(result.fieldErrors ?? {})) {
-        if (['repairNotes', 'cycles', 'flameSignal', 'notes'].includes(field)) setError(field as 'repairNotes', { message: messages[0] });
-      }
-      return;
-    }
-    setStatus({ tone: 'ok', text: 'Repair and verification saved.' });
-    router.refresh();
-  });
-
-  const e = formState.errors;
-  return (
-    <form onSubmit={onSubmit} noValidate className="space-y-4" aria-labelledby="repair-heading">
-      <FormMessage message={status?.text} tone={status?.tone} />
-      <fieldset disabled={readOnly} className="space-y-4">
-        <Field label="Repair notes" error={e.repairNotes?.message} hint="What you found and what you did.">
-          {(a11y) => <textarea {...a11y} rows={4} className="input py-2" {...register('repairNotes')} />}
-        </Field>
-        <div className="grid gap-4 sm:grid-cols-2">
-          <Field label="Heat cycles run" error={e.cycles?.message} hint="Complete call-for-heat cycles watched after the repair.">
-            {(a11y) => <TextInput {...a11y} inputMode="numeric" className="font-mono" {...register('cycles')} />}
-          </Field>
-          <Field label="Flame signal after repair" error={e.flameSignal?.message} hint='As read on the meter, e.g. "4.2 µA".'>
-            {(a11y) => <TextInput {...a11y} inputMode="decimal" className="font-mono" placeholder="4.2 µA" {...register('flameSignal')} />}
-          </Field>
-        </div>
-        {allChecks.length > 0 && (
-          <fieldset>
-            <legend className="label">Verification checklist</legend>
-            <ul className="space-y-2">
-              {allChecks.map((text) => (
-                <li key={text}>
-                  <label className="flex min-h-touch cursor-pointer items-center gap-3 rounded-lg border border-line bg-surface px-3 py-2">
-                    <input type="checkbox" value={text} className="h-6 w-6 shrink-0 accent-[rgb(var(--copper))]" {...register('ticked')} />
-                    <span>{text}</span>
-                  </label>
-                </li>
-              ))}
-            </ul>
-          </fieldset>
-        )}
-        <Field label="Notes" error={e.notes?.message} hint="Optional: anything the customer or the office should know.">
-          {(a11y) => <textarea {...a11y} rows={2} className="input py-2" {...register('notes')} />}
-        </Field>
-        {!readOnly && (
-          <button type="submit" className="btn-secondary" disabled={formState.isSubmitting}>
-            {formState.isSubmitting ? 'Saving…' : 'Save repair and verification'}
-          </button>
-        )}
-      </fieldset>
-    </form>
   );
 }
 

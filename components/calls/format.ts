@@ -23,7 +23,12 @@ export const IGNITION_LABELS = { 'two-rod': 'DSI, two-rod', 'single-rod': 'DSI, 
 export const FUEL_LABELS = { 'natural-gas': 'Natural gas', lp: 'LP' } as const;
 export const SUPPLY_LABELS = { '24v': '24 V only', line: 'Line-powered control' } as const;
 
-export const DIAGNOSIS_LABELS: Record<string, string> = { in_progress: 'In progress', found: 'Finding reached', escalated: 'Escalated' };
+export const DIAGNOSIS_LABELS: Record<string, string> = {
+  in_progress: 'In progress',
+  found: 'Finding reached — repair not verified yet',
+  verified: 'Repair verified',
+  escalated: 'Escalated to the leads',
+};
 
 export const VERDICT_WORDS: Record<string, { word: string; icon: string }> = {
   below: { word: 'Below', icon: '▼' },

@@ -324,6 +324,7 @@ function NewUnit({
       ignition: 'two-rod',
       fuel: 'natural-gas',
       controlSupply: '24v',
+      draft: 'induced',
       transformerVa: 40,
       installYear: '',
     },
@@ -333,7 +334,15 @@ function NewUnit({
     const result = await createUnit(values);
     if (!result.ok) {
       setMessage(result.message);
-      applyServerErrors(setError, result.fieldErrors, ['label', 'ignition', 'fuel', 'controlSupply', 'transformerVa', 'installYear']);
+      applyServerErrors(setError, result.fieldErrors, [
+        'label',
+        'ignition',
+        'fuel',
+        'controlSupply',
+        'draft',
+        'transformerVa',
+        'installYear',
+      ]);
       return;
     }
     reset();
@@ -381,6 +390,17 @@ function NewUnit({
             label={SUPPLY_LABELS[v]}
             detail={v === '24v' ? 'transformer feeds the control' : '120 VAC to the control'}
             {...register('controlSupply')}
+          />
+        ))}
+      </Segmented>
+      <Segmented legend="Draft" error={e.draft?.message}>
+        {(['induced', 'natural'] as const).map((v) => (
+          <SegmentOption
+            key={v}
+            value={v}
+            label={v === 'induced' ? 'Induced draft' : 'Natural draft'}
+            detail={v === 'induced' ? 'inducer and pressure switch' : 'no inducer'}
+            {...register('draft')}
           />
         ))}
       </Segmented>

@@ -56,7 +56,13 @@ function StepLine({ step, timeZone }: { step: PathStep; timeZone: string }) {
     <li className="border-t border-line py-2 print:break-inside-avoid">
       <div className="flex flex-wrap items-baseline justify-between gap-x-3">
         <p className="font-semibold">
-          {step.procedure === 'lock-out' ? 'Lock-out: ' : step.procedure === 're-energize' ? 'Re-energize: ' : ''}
+          {step.procedure === 'lock-out'
+            ? 'Lock-out: '
+            : step.procedure === 're-energize'
+              ? 'Re-energize: '
+              : step.procedure === 'energy'
+                ? 'Energy: '
+                : ''}
           {step.stepTitle}
         </p>
         <time className="text-sm text-muted print:text-black" dateTime={new Date(step.at).toISOString()}>
@@ -192,7 +198,16 @@ export function ServiceReport({ report }: { report: CallReport }) {
         <h2 id="r-repair" className="text-lg font-bold">
           Repair and verification
         </h2>
-        {call.repairNotes ? <p className="whitespace-pre-line">{call.repairNotes}</p> : <p className="text-muted">No repair recorded.</p>}
+        {call.repairNotes ? (
+          <p className="whitespace-pre-line">{call.repairNotes}</p>
+        ) : diagnoses.some((d) => d.status === 'verified') ? (
+          <p>
+            Repaired, power and gas restored, and verified in the visit: the repair, the reading after it and the checks are on the path
+            above.
+          </p>
+        ) : (
+          <p className="text-muted">No repair recorded.</p>
+        )}
         {v && (
           <>
             <Meta

@@ -1,10 +1,12 @@
 import Link from 'next/link';
 import type { ReactNode } from 'react';
-import type { FindingStep, TreeVersion } from '@/lib/trees/schema';
+import type { EnergyState, FindingStep, TreeVersion } from '@/lib/trees/schema';
 import { formatReading } from '@/lib/units';
 import { getStep } from '@/machines/diagnosis-machine';
 import { CautionList } from '@/components/ui/caution';
+import { Time } from '@/components/ui/time-zone';
 import { ActionBar } from '@/components/wizard/action-bar';
+import { EnergyBadge } from '@/components/wizard/step-parts';
 
 export interface ContradictionView {
   stepId: string;
@@ -32,13 +34,33 @@ export interface FindingScreenProps {
   needsSignOff: boolean;
   signedOff: { by: string | null; at: string | Date | null } | null;
   footer?: ReactNode;
+  /** `repair`: the finding reached, the repair to do (in the energy state it needs); `done`: repaired and verified. */
+  mode?: 'repair' | 'done';
+  energy?: EnergyState;
+  /** "Repair done": the visit goes on to restore and verify. */
+  onRepairDone?: () => void;
 }
 
-export function FindingScreen({ finding, version, callId, contradictions, needsSignOff, signedOff, footer }: FindingScreenProps) {
+export function FindingScreen({
+  finding,
+  version,
+  callId,
+  contradictions,
+  needsSignOff,
+  signedOff,
+  footer,
+  mode = 'repair',
+  energy,
+  onRepairDone,
+}: FindingScreenProps) {
   const disagree = contradictions && contradictions.length > 0;
+  const done = mode === 'done';
   return (
-    <div className="flex flex-col gap-5" data-testid="finding">
-      <p className="text-sm font-semibold uppercase tracking-wide text-muted">Finding</p>
+    <div className="flex flex-col gap-5" data-testid={done ? 'visit-done' : 'finding'}>
+      <div className="flex flex-wrap items-center justify-between gap-3">
+        <p className="text-base font-semibold uppercase tracking-wide text-muted">{done ? 'Repair verified' : 'Finding'}</p>
+        {energy && <EnergyBadge energy={energy} />}
+      </div>
       {disagree && (
         <section
           role="alert"
@@ -50,11 +72,17 @@ export function FindingScreen({ finding, version, callId, contradictions, needsS
             <span aria-hidden className="font-mono text-2xl">
               ≠
             </span>
-            {contradictions.length === 1
-              ? 'A reading disagrees with this finding'
-              : `${contradictions.length} readings disagree with this finding`}
+            {done
+              ? 'A reading disagrees with the verification'
+              : contradictions.length === 1
+                ? 'A reading disagrees with this finding'
+                : `${contradictions.length} readings disagree with this finding`}
           </h2>
-          <p className="mb-2 text-base">Check these before you accept it; re-measure, or undo to a step and take it again.</p>
+          <p className="mb-2 text-base">
+            {done
+              ? 'A check was ticked as holding, but a reading says otherwise. Undo and look again before you close the call.'
+              : 'Check these before you accept it; re-measure, or undo to a step and take it again.'}
+          </p>
           <ul className="space-y-2">
             {contradictions.map((c, i) => {
               const step = getStep(version, c.stepId);
@@ -67,7 +95,7 @@ export function FindingScreen({ finding, version, callId, contradictions, needsS
                     Read <span className="font-mono font-semibold">{shown}</span>; this finding expects{' '}
                     <span className="font-mono">{expectedText(version, c)}</span>.
                   </p>
-                  <p className="text-sm text-muted">The finding assumes: {c.reason.charAt(0).toLowerCase() + c.reason.slice(1)}.</p>
+                  <p className="text-base text-muted">The finding assumes: {c.reason.charAt(0).toLowerCase() + c.reason.slice(1)}.</p>
                 </li>
               );
             })}
@@ -85,7 +113,15 @@ export function FindingScreen({ finding, version, callId, contradictions, needsS
       {signedOff && (
         <p className="text-base text-muted">
           Signed off by {signedOff.by ?? 'a technician'}
-          {signedOff.at ? ` on ${new Date(signedOff.at).toLocaleString()}` : ''}.
+          {signedOff.at ? (
+            <>
+              {' '}
+              on <Time value={signedOff.at} />
+            </>
+          ) : (
+            ''
+          )}
+          .
         </p>
       )}
       <CautionList cautions={finding.cautions} />
@@ -109,18 +145,22 @@ export function FindingScreen({ finding, version, callId, contradictions, needsS
           </div>
         )}
         <div>
-          <h2 className="text-lg font-bold">Verify the repair</h2>
+          <h2 className="text-lg font-bold">{done ? 'Verified' : 'After the repair'}</h2>
           <ul className="space-y-1">
             {finding.verification.map((v) => (
               <li key={v} className="flex gap-2">
                 <span aria-hidden className="font-mono">
-                  ☐
+                  {done ? '☑' : '☐'}
                 </span>
                 {v}
               </li>
             ))}
           </ul>
-          <p className="mt-2 text-sm text-muted">Record the repair and tick these on the call page.</p>
+          {!done && (
+            <p className="mt-2 text-base text-muted">
+              Once the repair is done, the wizard takes you through restoring power and gas and these checks.
+            </p>
+          )}
         </div>
       </section>
       {contradictions === null && (
@@ -128,9 +168,15 @@ export function FindingScreen({ finding, version, callId, contradictions, needsS
       )}
       {footer}
       <ActionBar hint={disagree ? 'Readings disagree — check them first.' : undefined}>
-        <Link href={`/calls/${callId}`} className="btn-primary min-w-[12rem] text-lg">
-          {disagree ? 'Accept anyway — go to the call' : 'Accept finding — go to the call'}
-        </Link>
+        {done || !onRepairDone ? (
+          <Link href={`/calls/${callId}`} className="btn-primary min-w-[12rem] text-lg">
+            Go to the call
+          </Link>
+        ) : (
+          <button type="button" className="btn-primary min-w-[12rem] text-lg" onClick={onRepairDone} data-testid="repair-done">
+            {disagree ? 'Repair done anyway' : 'Repair done'}
+          </button>
+        )}
       </ActionBar>
     </div>
   );

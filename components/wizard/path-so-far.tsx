@@ -14,7 +14,8 @@ export function readingText(item: Pick<PathItem, 'quantity' | 'text' | 'unit' | 
 
 function answerText(item: PathItem) {
   if (item.kind === 'measure') return <span className="font-mono">{readingText(item)}</span>;
-  if (item.kind === 'inspect') return item.choiceLabel ?? '';
+  if (item.kind === 'inspect') return item.note ? `${item.choiceLabel ?? ''} — “${item.note}”` : (item.choiceLabel ?? '');
+  if (item.kind === 'fact') return `${item.choiceLabel ?? ''} (from the unit record)`;
   return 'Done';
 }
 

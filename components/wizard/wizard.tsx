@@ -4,14 +4,16 @@ import { useMachine } from '@xstate/react';
 import clsx from 'clsx';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { fromPromise } from 'xstate';
-import type { ActionStep, FindingStep, InspectStep, MeasureStep, TreeVersion } from '@/lib/trees/schema';
+import { findBand, shiftedBands } from '@/lib/bands';
+import type { ActionStep, EnergyState, FindingStep, InspectStep, MeasureStep, TreeVersion, UnitFacts } from '@/lib/trees/schema';
 import type { Role } from '@/lib/roles';
 import { displayUnitFor, OVER_RANGE_ENTRY, type UnitSystem } from '@/lib/units';
 import { fetcher } from '@/lib/swr/fetcher';
 import type { ActionResult, AnswerResult, DiagnosisViewOut } from '@/lib/validations/api';
-import { getStep } from '@/machines/diagnosis-machine';
+import { getStep, phaseOf } from '@/machines/diagnosis-machine';
 import {
   pathItems,
+  readingsOf,
   syncStatus,
   wizardMachine,
   type PendingAnswer,
@@ -20,6 +22,7 @@ import {
   type WizardView,
 } from '@/machines/wizard-machine';
 import { CautionList } from '@/components/ui/caution';
+import { EscalateStep } from '@/components/wizard/escalate-step';
 import { ActionBar } from '@/components/wizard/action-bar';
 import { ElectricalAids } from '@/components/wizard/electrical-aids';
 import { FindingScreen } from '@/components/wizard/finding-screen';
@@ -35,6 +38,7 @@ import { UndoLast } from '@/components/wizard/undo-last';
 export interface WizardActions {
   submitAnswer: (input: unknown) => Promise<ActionResult<AnswerResult>>;
   undoAnswer: (input: unknown) => Promise<ActionResult<DiagnosisViewOut>>;
+  escalate: (input: unknown) => Promise<ActionResult<DiagnosisViewOut>>;
 }
 
 /** A save that has not answered in this time is given up and retried (the server action has no timeout of its own). */
@@ -84,6 +88,8 @@ export interface WizardProps {
   transformerVa: number | null;
   /** The signed-in user's role: "why this step" opens by itself for apprentices. */
   viewerRole?: Role | null;
+  /** The unit record's facts, for the branches they answer while answers wait to be saved. */
+  unit?: UnitFacts;
 }
 
 const queueKey = (id: string) => `pg-wizard-queue:${id}`;
@@ -113,12 +119,12 @@ export function answerPayload(a: PendingAnswer) {
     stepId: a.stepId,
     ...(a.kind === 'measure' && a.overRange ? { overRange: true as const } : {}),
     ...(a.kind === 'measure' && !a.overRange ? { text: a.text ?? '', ...(a.unit ? { unit: a.unit } : {}) } : {}),
-    ...(a.kind === 'inspect' ? { choice: a.choice } : {}),
-    ...(a.kind === 'action' ? { confirmed: true } : {}),
+    ...(a.kind === 'inspect' ? { choice: a.choice, ...(a.note ? { note: a.note } : {}) } : {}),
+    ...(a.kind === 'action' || a.kind === 'finding' ? { confirmed: true } : {}),
   };
 }
 
-export function Wizard({ actions, diagnosisId, callId, version, initialView, displayUnits, transformerVa, viewerRole }: WizardProps) {
+export function Wizard({ actions, diagnosisId, callId, version, initialView, displayUnits, transformerVa, viewerRole, unit }: WizardProps) {
   // The server's view as last seen: the page's, then what an undo or a reload answered.
   const [view, setView] = useState(initialView);
 
@@ -154,7 +160,7 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
     [actions, diagnosisId],
   );
 
-  const [snapshot, send] = useMachine(machine, { input: { diagnosisId, version, view: initialView } });
+  const [snapshot, send] = useMachine(machine, { input: { diagnosisId, version, view: initialView, unit } });
   const ctx = snapshot.context;
 
   useEffect(() => {
@@ -189,10 +195,23 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
   }, [headingKey]);
 
   const finding = ctx.findingId ? (getStep(version, ctx.findingId) as FindingStep | undefined) : undefined;
+  const phase = phaseOf(version, ctx.stepId);
+  const escalated = view.status === 'escalated';
+  const readings = readingsOf([...ctx.saved, ...ctx.pending]);
+  const canEscalate = !escalated && phase !== 'done' && view.callStatus !== 'closed' && view.callStatus !== 'referred';
   const footer = (
     <div className="space-y-4">
-      {finding && <EnergyLine energy={ctx.energy} />}
       <PathSoFar items={items} />
+      {canEscalate && (
+        <EscalateStep
+          disabled={ctx.pending.length > 0}
+          onEscalate={async (note) => {
+            const result = await actions.escalate({ diagnosisId, note });
+            if (result.ok) setView(result.data);
+            return result;
+          }}
+        />
+      )}
       <UndoLast
         lastTitle={items.at(-1)?.stepTitle ?? null}
         lockedReason={undoLockedReason(view)}
@@ -209,7 +228,7 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
       <div className="mb-4 flex flex-wrap items-center justify-between gap-3">
         <p className="text-base text-muted">
           {initialView.tree.title} · v{initialView.tree.version}
-          {!finding && <> · step {items.length + 1}</>}
+          {!finding && <> · step {items.filter((i) => i.kind !== 'fact').length + 1}</>}
         </p>
         <SyncStatus kind={status.kind} text={status.text} onRetry={() => send({ type: 'retry.now' })} />
       </div>
@@ -230,29 +249,41 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
         )}
       </div>
 
-      {finding ? (
+      {escalated ? (
+        <EscalatedScreen view={view} callId={callId} footer={<PathSoFar items={items} />} />
+      ) : finding && (phase === 'repair' || phase === 'done') ? (
         <FindingScreen
+          key={phase}
           finding={finding}
           version={version}
           callId={callId}
+          mode={phase === 'done' ? 'done' : 'repair'}
+          energy={ctx.energy}
           contradictions={check ? check.contradictions : null}
           needsSignOff={view?.startedBy.role === 'apprentice' && !view.signedOff}
           signedOff={view?.signedOff ?? null}
           footer={footer}
+          onRepairDone={() =>
+            send({ type: 'answer.submit', answer: { stepId: finding.id, confirmed: true, clientId: crypto.randomUUID() } })
+          }
         />
       ) : step ? (
-        <StepScreen
-          key={`${step.id}:${items.length}`}
-          step={step as MeasureStep | InspectStep | ActionStep}
-          diagnosisId={diagnosisId}
-          whyOpen={viewerRole === 'apprentice'}
-          energy={ctx.energy}
-          displayUnits={displayUnits}
-          transformerVa={transformerVa}
-          footer={footer}
-          initial={refusal ? { text: refusal.text ?? '', unit: refusal.unit ?? '' } : null}
-          onAnswer={(answer) => send({ type: 'answer.submit', answer: { ...answer, clientId: crypto.randomUUID() } })}
-        />
+        <>
+          {finding && <VisitBanner finding={finding} phase={phase} />}
+          <StepScreen
+            key={`${step.id}:${items.length}`}
+            step={step as MeasureStep | InspectStep | ActionStep}
+            diagnosisId={diagnosisId}
+            whyOpen={viewerRole === 'apprentice'}
+            energy={ctx.energy}
+            readings={readings}
+            displayUnits={displayUnits}
+            transformerVa={transformerVa}
+            footer={footer}
+            initial={refusal ? { text: refusal.text ?? '', unit: refusal.unit ?? '' } : null}
+            onAnswer={(answer) => send({ type: 'answer.submit', answer: { ...answer, clientId: crypto.randomUUID() } })}
+          />
+        </>
       ) : (
         <p>This step is not part of the tree version; reload the page.</p>
       )}
@@ -268,11 +299,46 @@ function undoLockedReason(view: DiagnosisViewOut): string | null {
   return null;
 }
 
-function EnergyLine({ energy }: { energy: 'energized' | 'locked-out' }) {
+const PHASE_WORDS: Record<string, string> = {
+  procedure: 'Energy procedure',
+  reconnect: 'Set up for the reading after the repair',
+  recheck: 'Reading after the repair',
+  verify: 'Verify the repair',
+};
+
+/** Where the visit stands once a finding is reached: repair, restore, verify. */
+function VisitBanner({ finding, phase }: { finding: FindingStep; phase: string }) {
   return (
-    <div className="flex items-center gap-3">
-      <span className="text-base text-muted">The unit is now</span>
-      <EnergyBadge energy={energy} />
+    <p className="mb-4 rounded-lg border-2 border-ink bg-sunken px-4 py-3 text-base" data-testid="visit-banner">
+      <span className="font-semibold">Finding: {finding.title}.</span> Repair done — {PHASE_WORDS[phase] ?? 'next step'}.
+    </p>
+  );
+}
+
+/** A diagnosis handed to the leads: the note, who and when; nothing more to answer. */
+function EscalatedScreen({ view, callId, footer }: { view: DiagnosisViewOut; callId: string; footer: React.ReactNode }) {
+  return (
+    <div className="flex flex-col gap-5" data-testid="escalated">
+      <p className="text-base font-semibold uppercase tracking-wide text-muted">Escalated</p>
+      <h1 className="page-title" tabIndex={-1} data-step-heading>
+        Sent to the leads
+      </h1>
+      <p className="text-lg">
+        This diagnosis ended without a finding. Your company&apos;s leads see it on their home page with your note; leave the unit safe —
+        power and gas as the last step left them, or off if you are leaving it.
+      </p>
+      {view.escalation && (
+        <blockquote className="card text-lg">
+          <p>“{view.escalation.note}”</p>
+          <p className="mt-2 text-base text-muted">{view.escalation.by ?? 'Someone'}</p>
+        </blockquote>
+      )}
+      {footer}
+      <ActionBar>
+        <a href={`/calls/${callId}`} className="btn-primary min-w-[12rem] text-lg">
+          Go to the call
+        </a>
+      </ActionBar>
     </div>
   );
 }
@@ -281,7 +347,9 @@ interface StepScreenProps {
   step: MeasureStep | InspectStep | ActionStep;
   diagnosisId: string;
   whyOpen: boolean;
-  energy: 'energized' | 'locked-out';
+  energy: EnergyState;
+  /** The walk's readings so far, for bands relative to one of them. */
+  readings: Record<string, number>;
   displayUnits: UnitSystem;
   transformerVa: number | null;
   initial: ReadingValue | null;
@@ -293,12 +361,24 @@ interface StepScreenProps {
     value?: number;
     overRange?: true;
     choice?: string;
+    note?: string;
     confirmed?: boolean;
   }) => void;
 }
 
-function StepScreen({ step, diagnosisId, whyOpen, energy, displayUnits, transformerVa, initial, footer, onAnswer }: StepScreenProps) {
-  const procedure = step.id.startsWith('lock-out--') || step.id.startsWith('re-energize--');
+function StepScreen({
+  step,
+  diagnosisId,
+  whyOpen,
+  energy,
+  readings,
+  displayUnits,
+  transformerVa,
+  initial,
+  footer,
+  onAnswer,
+}: StepScreenProps) {
+  const procedure = /^(lock-out|gas-off|gas-on|re-energize)(\+(lock-out|gas-off|gas-on|re-energize))*--/.test(step.id);
   return (
     <div className="flex flex-col gap-5">
       <div className="flex flex-wrap items-center justify-between gap-3">
@@ -307,15 +387,18 @@ function StepScreen({ step, diagnosisId, whyOpen, energy, displayUnits, transfor
         </h1>
         <EnergyBadge energy={energy} />
       </div>
-      {procedure && (
-        <p className="text-base font-semibold uppercase tracking-wide text-muted">
-          {step.id.startsWith('lock-out--') ? 'Lock-out procedure' : 'Re-energize procedure'}
-        </p>
-      )}
+      {procedure && <p className="text-base font-semibold uppercase tracking-wide text-muted">Energy procedure</p>}
       <CautionList cautions={step.cautions} role={step.cautions.some((c) => c.signal === 'DANGER') ? 'alert' : 'note'} />
       {step.instruction && <p className="text-lg leading-relaxed">{step.instruction}</p>}
       {step.kind === 'measure' && (
-        <MeasureBody step={step} displayUnits={displayUnits} transformerVa={transformerVa} initial={initial} onAnswer={onAnswer} />
+        <MeasureBody
+          step={step.reference ? { ...step, bands: shiftedBands(step, readings), reference: undefined } : step}
+          relativeTo={step.reference ? step.reference.step : undefined}
+          displayUnits={displayUnits}
+          transformerVa={transformerVa}
+          initial={initial}
+          onAnswer={onAnswer}
+        />
       )}
       {step.kind === 'inspect' && <InspectBody step={step} onAnswer={onAnswer} />}
       {step.kind === 'action' && (
@@ -335,12 +418,15 @@ function StepScreen({ step, diagnosisId, whyOpen, energy, displayUnits, transfor
 
 function MeasureBody({
   step,
+  relativeTo,
   displayUnits,
   transformerVa,
   initial,
   onAnswer,
 }: {
   step: MeasureStep;
+  /** The earlier step the bands were shifted by (shown so the technician knows what the bands follow). */
+  relativeTo?: string;
   displayUnits: UnitSystem;
   transformerVa: number | null;
   initial: ReadingValue | null;
@@ -351,8 +437,10 @@ function MeasureBody({
     unit: initial?.unit || displayUnitFor(step.quantity, displayUnits),
   }));
   const parsed = value.text.trim() === '' ? null : parseEntry(step, value);
+  // A band that takes no reading (leads reversed): say so, and measure again.
+  const askAgain = parsed?.ok && !parsed.overRange ? findBand(step.bands, parsed.value)?.band.askAgain : undefined;
   const save = () => {
-    if (!parsed?.ok) return;
+    if (!parsed?.ok || askAgain) return;
     // Over range has no value: the wire answer is `overRange: true`; "OL" stays as the text shown on the path.
     if (parsed.overRange) onAnswer({ stepId: step.id, text: OVER_RANGE_ENTRY, unit: parsed.unit, overRange: true });
     else onAnswer({ stepId: step.id, text: value.text.trim(), unit: value.unit, value: parsed.value });
@@ -361,10 +449,17 @@ function MeasureBody({
     <>
       <TestPoints step={step} />
       <ReadingEntry step={step} value={value} onChange={setValue} onSubmit={save} />
+      {askAgain && (
+        <p role="alert" className="rounded-lg border-2 border-ink bg-sunken px-4 py-3 text-lg font-semibold" data-testid="ask-again">
+          <span aria-hidden>↻ </span>
+          {askAgain}
+        </p>
+      )}
+      {relativeTo && <p className="text-base text-muted">The bands follow the reading you took at “{relativeTo}” on this visit.</p>}
       {step.bandsNote && <p className="text-base text-muted">{step.bandsNote}</p>}
       <ElectricalAids aids={step.aids} transformerVa={transformerVa} />
-      <ActionBar hint={parsed?.ok ? undefined : 'Enter a reading to save it.'}>
-        <button type="button" className="btn-primary min-w-[12rem] text-lg" disabled={!parsed?.ok} onClick={save}>
+      <ActionBar hint={askAgain ? 'Measure again.' : parsed?.ok ? undefined : 'Enter a reading to save it.'}>
+        <button type="button" className="btn-primary min-w-[12rem] text-lg" disabled={!parsed?.ok || Boolean(askAgain)} onClick={save}>
           Save reading
         </button>
       </ActionBar>
@@ -374,6 +469,8 @@ function MeasureBody({
 
 function InspectBody({ step, onAnswer }: { step: InspectStep; onAnswer: StepScreenProps['onAnswer'] }) {
   const [choice, setChoice] = useState<string | null>(null);
+  const [note, setNote] = useState('');
+  const noteMissing = Boolean(step.note?.required) && note.trim() === '';
   return (
     <>
       <div role="radiogroup" aria-label={step.title} className="grid gap-3 sm:grid-cols-2">
@@ -399,12 +496,27 @@ function InspectBody({ step, onAnswer }: { step: InspectStep; onAnswer: StepScre
           );
         })}
       </div>
-      <ActionBar hint={choice ? undefined : 'Pick what you see.'}>
+      {step.note && (
+        <label className="block space-y-2">
+          <span className="label text-base">
+            {step.note.label}
+            {step.note.required ? '' : ' (optional)'}
+          </span>
+          <textarea
+            className="input min-h-[5rem] w-full text-lg"
+            maxLength={500}
+            value={note}
+            onChange={(e) => setNote(e.target.value)}
+            data-testid="step-note"
+          />
+        </label>
+      )}
+      <ActionBar hint={!choice ? 'Pick what you see.' : noteMissing ? 'Write what the control reports.' : undefined}>
         <button
           type="button"
           className="btn-primary min-w-[12rem] text-lg"
-          disabled={!choice}
-          onClick={() => choice && onAnswer({ stepId: step.id, choice })}
+          disabled={!choice || noteMissing}
+          onClick={() => choice && onAnswer({ stepId: step.id, choice, ...(note.trim() ? { note: note.trim() } : {}) })}
         >
           Choose
         </button>

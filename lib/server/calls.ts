@@ -21,7 +21,16 @@ import { getUnit, listUnits, listUnitReadings, type Unit } from '@/db/units';
 import { AppError } from '@/lib/errors';
 import type { Scope } from '@/lib/policy';
 import { getDiagnosisView } from '@/lib/server/diagnoses';
-import { LOCK_OUT_PREFIX, RE_ENERGIZE_PREFIX } from '@/lib/trees/graph';
+import { parseProcedureStateId } from '@/lib/trees/graph';
+
+/** How the report names an inserted energy procedure: by what it does first. */
+function procedureKind(stateId: string): 'lock-out' | 're-energize' | 'energy' | null {
+  const parsed = parseProcedureStateId(stateId);
+  if (!parsed) return null;
+  if (parsed.changes.includes('lock-out')) return 'lock-out';
+  if (parsed.changes.length === 1 && parsed.changes[0] === 're-energize') return 're-energize';
+  return 'energy';
+}
 import type { Caution, FindingStep } from '@/lib/trees/schema';
 import { parseReading } from '@/lib/units';
 import type { CallInput, CallStatus, RepairInput } from '@/lib/validations/field';
@@ -122,10 +131,16 @@ export async function finishCall({
       if (diagnoses.some((d) => d.status === 'in_progress')) {
         throw new AppError('conflict', 'A diagnosis on this call is still in progress: finish it, or refer the call.');
       }
-      if (diagnoses.some((d) => d.status === 'found' && d.userRole === 'apprentice' && !d.signedOffBy)) {
+      // The visit goes on in the wizard after the finding: repair, restore, verify.
+      if (diagnoses.some((d) => d.status === 'found') && !call.repairNotes) {
+        throw new AppError('conflict', 'Finish the visit in the wizard first: the repair, restoring power and gas, and its checks.');
+      }
+      if (diagnoses.some((d) => (d.status === 'found' || d.status === 'verified') && d.userRole === 'apprentice' && !d.signedOffBy)) {
         throw new AppError('conflict', "An apprentice's finding needs a technician's sign-off before the call can be closed.");
       }
-      if (!call.repairNotes) throw new AppError('conflict', 'Record the repair and its verification before closing the call.');
+      if (!diagnoses.some((d) => d.status === 'verified') && !call.repairNotes) {
+        throw new AppError('conflict', 'Verify the repair in the wizard before closing the call, or refer the call.');
+      }
     }
     if (!(await closeCall({ companyId: scope.companyId, id, outcome, closedBy: userId }, trx))) {
       throw new AppError('conflict', 'This call is already closed.');
@@ -266,7 +281,8 @@ export async function getCallPage({ scope, id }: { scope: Scope; id: string }) {
       finishedAt: d.finishedAt,
       finding: finding ? { id: finding.id, title: finding.title, remedy: finding.remedy, verification: finding.verification } : null,
       signedOff: d.signedOffBy ? { by: d.signedOffByName, at: d.signedOffAt } : null,
-      needsSignOff: d.status === 'found' && d.userRole === 'apprentice' && !d.signedOffBy,
+      escalation: d.escalation,
+      needsSignOff: (d.status === 'found' || d.status === 'verified') && d.userRole === 'apprentice' && !d.signedOffBy,
       answers: answers.filter((a) => a.diagnosisId === d.id).length,
     };
   });
@@ -316,7 +332,7 @@ export async function getCallReport({ scope, id }: { scope: Scope; id: string })
         instruction: step?.instruction ?? '',
         points: step?.kind === 'measure' ? step.points : null,
         checklist: step?.kind === 'action' ? step.checklist : [],
-        procedure: a.stepId.startsWith(LOCK_OUT_PREFIX) ? 'lock-out' : a.stepId.startsWith(RE_ENERGIZE_PREFIX) ? 're-energize' : null,
+        procedure: procedureKind(a.stepId),
       };
     });
     if (view.finding) for (const c of view.finding.cautions) cautions.set(`${c.signal}|${c.text}`, c);
@@ -355,6 +371,12 @@ export async function getUnitPage({ scope, id }: { scope: Scope; id: string }) {
     const title = versions.get(d.treeVersionId)!.graph.steps.find((s) => s.id === d.findingStepId)?.title ?? d.findingStepId;
     findingsByCall.set(d.callId, [...(findingsByCall.get(d.callId) ?? []), title]);
   }
+  // Flame signals retaken after a repair, in the wizard (a reading of its own) or, for calls
+  // recorded before the visit went on in the wizard, on the call's repair record.
+  const isAfterRepair = (stepId: string) => stepId.startsWith('recheck--');
+  const retaken = readings.filter((r) => r.quantity === 'udc' && isAfterRepair(r.stepId));
+  const afterRepairOf = (c: (typeof calls)[number]) =>
+    retaken.filter((r) => r.callId === c.id).at(-1)?.value ?? c.verification?.flameSignal?.value ?? null;
   const visits = calls.map((c) => ({
     id: c.id,
     openedAt: c.openedAt,
@@ -362,13 +384,18 @@ export async function getUnitPage({ scope, id }: { scope: Scope; id: string }) {
     status: c.status,
     technicianName: c.technicianName,
     findings: findingsByCall.get(c.id) ?? [],
-    flameAfterRepair: c.verification?.flameSignal?.value ?? null,
+    flameAfterRepair: afterRepairOf(c),
   }));
   const flame = {
-    diagnosis: readings.filter((r) => r.quantity === 'udc').map((r) => ({ at: r.takenAt, value: r.value, callId: r.callId })),
-    afterRepair: calls
-      .filter((c) => c.verification?.flameSignal)
-      .map((c) => ({ at: c.closedAt ?? c.openedAt, value: c.verification!.flameSignal!.value, callId: c.id })),
+    diagnosis: readings
+      .filter((r) => r.quantity === 'udc' && !isAfterRepair(r.stepId))
+      .map((r) => ({ at: r.takenAt, value: r.value, callId: r.callId })),
+    afterRepair: [
+      ...retaken.map((r) => ({ at: r.takenAt, value: r.value, callId: r.callId })),
+      ...calls
+        .filter((c) => c.verification?.flameSignal && !retaken.some((r) => r.callId === c.id))
+        .map((c) => ({ at: c.closedAt ?? c.openedAt, value: c.verification!.flameSignal!.value, callId: c.id })),
+    ],
     bands: await flameBands({ scope }),
   };
   return { unit, site, visits, readings, flame };

@@ -1,8 +1,9 @@
 import 'server-only';
 import type { Knex } from 'knex';
-import { CLOSED_STATUSES, getCall, setCallStatus } from '@/db/calls';
+import { CLOSED_STATUSES, getCall, recordCallEvent, setCallStatus } from '@/db/calls';
 import {
   createDiagnosis,
+  escalateDiagnosis,
   findAnswerByClientId,
   getCallOfDiagnosis,
   getDiagnosis,
@@ -20,6 +21,7 @@ import {
 } from '@/db/diagnoses';
 import { db } from '@/db/knex';
 import { getTreeVersion, type TreeVersionRecord } from '@/db/trees';
+import { getUnit } from '@/db/units';
 import { evaluateReading } from '@/lib/bands';
 import { checkConsistency, type Contradiction } from '@/lib/consistency';
 import { AppError } from '@/lib/errors';
@@ -27,7 +29,7 @@ import type { Scope } from '@/lib/policy';
 
 /** A save's result as the handler makes it (dates still Dates); the output schema puts it on the wire. */
 type AnswerResult = z.input<typeof answerResultSchema>;
-import type { FindingStep, TreeVersion } from '@/lib/trees/schema';
+import type { EnergyState, FindingStep, MeasureStep, TreeVersion } from '@/lib/trees/schema';
 import { parseReading } from '@/lib/units';
 import type { Role } from '@/lib/roles';
 import type { answerResultSchema } from '@/lib/validations/api';
@@ -38,9 +40,12 @@ import {
   advance,
   currentStep,
   getStep,
+  isAfterFinding,
+  phaseOf,
   replayAnswers,
   startState,
   walkStateOf,
+  type AutoAnswer,
   type DiagnosisAnswer,
   type DiagnosisSnapshot,
   type WalkState,
@@ -54,6 +59,7 @@ import {
 const asMachineAnswer = (a: AnswerRecord): DiagnosisAnswer => ({
   stepId: a.stepId,
   ...(a.value !== null ? { value: a.value } : {}),
+  ...(a.overRange ? { overRange: true } : {}),
   ...(a.choice !== null ? { choice: a.choice } : {}),
   ...(a.confirmed !== null ? { confirmed: a.confirmed } : {}),
 });
@@ -89,10 +95,81 @@ export function toApiAnswer(a: AnswerRecord, version?: TreeVersion) {
     bandIndex: a.bandIndex,
     verdict: a.verdict,
     choice: a.choice,
-    choiceLabel: step?.kind === 'inspect' ? (step.choices.find((c) => c.value === a.choice)?.label ?? null) : null,
+    choiceLabel:
+      step?.kind === 'inspect'
+        ? (step.choices.find((c) => c.value === a.choice)?.label ?? null)
+        : step?.kind === 'fact'
+          ? (step.cases.find((c) => c.value === a.choice)?.label ?? null)
+          : null,
     confirmed: a.confirmed,
+    overRange: a.overRange,
+    auto: a.auto,
     at: a.createdAt,
   };
+}
+
+/** The energy state in the API's words: `energy` for electricity (as the first clients read it), `gas` beside it. */
+export const energyOut = (e: EnergyState) => ({
+  energy: e.electric === 'off' ? ('locked-out' as const) : ('energized' as const),
+  gas: e.gas,
+});
+
+/** The diagnosis status a state stands for: walking, at the finding (repair to its checks), verified. */
+function statusOf(version: TreeVersion, stateId: string): 'in_progress' | 'found' | 'verified' {
+  if (phaseOf(version, stateId) === 'done') return 'verified';
+  return isAfterFinding(version, stateId) ? 'found' : 'in_progress';
+}
+
+const findingOf = (version: TreeVersion, findingId: string | null) => {
+  const step = findingId ? getStep(version, findingId) : undefined;
+  return step?.kind === 'finding' ? step : null;
+};
+
+/** Stored answer rows for the unit-record branches the diagnosis took by itself. */
+function autoRecords(version: TreeVersion, autos: AutoAnswer[], firstSeq: number, userId: string): AnswerRecord[] {
+  return autos.map((a, i) => ({
+    id: crypto.randomUUID(),
+    clientId: crypto.randomUUID(),
+    seq: firstSeq + i,
+    stepId: a.stepId,
+    stepKind: 'fact',
+    text: 'From the unit record',
+    value: null,
+    unit: null,
+    quantity: null,
+    bandIndex: null,
+    bandLabel: null,
+    verdict: null,
+    choice: a.value,
+    confirmed: null,
+    overRange: false,
+    auto: true,
+    userId,
+    createdAt: new Date(),
+    undoneAt: null,
+    response: null,
+  }));
+}
+
+async function insertAutos(
+  { companyId, diagnosisId, records }: { companyId: string; diagnosisId: string; records: AnswerRecord[] },
+  trx: Knex,
+) {
+  for (const r of records) {
+    await insertAnswer(
+      {
+        companyId,
+        diagnosisId,
+        userId: r.userId!,
+        id: r.id,
+        seq: r.seq,
+        createdAt: r.createdAt,
+        answer: { clientId: r.clientId, stepId: r.stepId, stepKind: 'fact', text: r.text, choice: r.choice, auto: true },
+        response: null,
+      },
+      trx,
+    );
+  }
 }
 
 /**
@@ -105,7 +182,8 @@ async function stateOf(diagnosis: DiagnosisRecord, version: TreeVersion, trx: Kn
     return {
       stateId: diagnosis.currentState,
       energy: diagnosis.energy,
-      findingId: step?.kind === 'finding' ? step.id : null,
+      // Past the finding (the repair, its readings and checks) the row keeps which finding it was.
+      findingId: step?.kind === 'finding' ? step.id : isAfterFinding(version, diagnosis.currentState) ? diagnosis.findingStepId : null,
       lastSeq: diagnosis.lastSeq,
     };
   }
@@ -138,11 +216,27 @@ export async function startDiagnosis({ scope, callId, treeVersionId }: { scope: 
       });
     }
     const version = machineVersion(record);
-    const state = startState(version);
+    const unit = await getUnit({ companyId: scope.companyId, id: call.unitId }, trx);
+    const { state, autos } = startState(version, unit);
     const id = await createDiagnosis(
       { companyId: scope.companyId, callId, treeVersionId, userId: scope.userId, currentState: state.stateId, energy: state.energy },
       trx,
     );
+    if (autos.length > 0) {
+      await insertAutos({ companyId: scope.companyId, diagnosisId: id, records: autoRecords(version, autos, 1, scope.userId) }, trx);
+      await saveDiagnosisState(
+        {
+          companyId: scope.companyId,
+          id,
+          status: 'in_progress',
+          findingStepId: null,
+          currentState: state.stateId,
+          energy: state.energy,
+          lastSeq: autos.length,
+        },
+        trx,
+      );
+    }
     await setCallStatus({ companyId: scope.companyId, id: callId, status: 'diagnosing', from: ['open', 'repaired'] }, trx);
     return { id, step: toApiStep(getStep(version, state.stateId)!) };
   });
@@ -156,9 +250,14 @@ export async function getDiagnosisView({ scope, id }: { scope: Scope; id: string
   const answers = await listPathAnswers({ companyId: scope.companyId, diagnosisId: id }, trx);
   const snapshot = replayOrFail(version, answers);
   const step = currentStep(snapshot);
-  const finding = step.kind === 'finding' ? step : null;
+  const stateId = walkStateOf(snapshot).stateId;
+  const phase = phaseOf(version, stateId);
+  const finding = findingOf(version, snapshot.context.findingId);
   const contradictions = finding
-    ? await contradictionsFor({ companyId: scope.companyId, callId: call.id, treeVersionId: version.id, finding }, trx)
+    ? await contradictionsFor(
+        { companyId: scope.companyId, callId: call.id, version, finding, path: answers, verified: phase === 'done' },
+        trx,
+      )
     : [];
   return {
     id: diagnosis.id,
@@ -168,9 +267,11 @@ export async function getDiagnosisView({ scope, id }: { scope: Scope; id: string
     tree: { title: record.title, version: record.version },
     startedBy: { id: diagnosis.userId, name: diagnosis.userName, role: diagnosis.userRole as Role | null },
     signedOff: diagnosis.signedOffBy ? { by: diagnosis.signedOffByName, at: diagnosis.signedOffAt } : null,
-    energy: snapshot.context.energy,
+    ...energyOut(snapshot.context.energy),
+    phase,
+    escalation: diagnosis.escalation,
     path: answers.map((a) => toApiAnswer(a, version)),
-    current: finding ? null : toApiStep(step),
+    current: phase === 'done' || diagnosis.status === 'escalated' ? null : toApiStep(step),
     finding: finding ? toApiFinding(finding) : null,
     contradictions,
     callStatus: call.status,
@@ -182,22 +283,52 @@ async function contradictionsFor(
   {
     companyId,
     callId,
-    treeVersionId,
+    version,
     finding,
     extra,
-  }: { companyId: string; callId: string; treeVersionId: string; finding: FindingStep; extra?: AnswerRecord },
+    path,
+    verified = false,
+  }: {
+    companyId: string;
+    callId: string;
+    version: TreeVersion;
+    finding: FindingStep;
+    extra?: AnswerRecord;
+    /** This diagnosis's path, for the readings after the repair. */
+    path?: AnswerRecord[];
+    /** The checks were ticked as holding: readings after the repair outside their good band contradict them. */
+    verified?: boolean;
+  },
   trx: Knex,
 ): Promise<Contradiction[]> {
-  const diagnoses = (await listDiagnosesForCall({ companyId, callId }, trx)).filter((d) => d.treeVersionId === treeVersionId);
+  const diagnoses = (await listDiagnosesForCall({ companyId, callId }, trx)).filter((d) => d.treeVersionId === version.id);
   const answers: AnswerRecord[] = await listAnswersForDiagnoses({ companyId, diagnosisIds: diagnoses.map((d) => d.id) }, trx);
-  const readings = [...answers, ...(extra ? [extra] : [])]
-    .filter((a) => a.value !== null)
+  const all = [...answers, ...(extra ? [extra] : [])];
+  // Readings after the repair judge the repair, not the finding: they are left out of its check.
+  const readings = all
+    .filter((a) => a.value !== null && !a.stepId.startsWith('recheck--'))
     .map((a) => ({ stepId: a.stepId, value: a.value as number, quantity: a.quantity ?? undefined, takenAt: a.createdAt.toISOString() }));
-  return checkConsistency(finding, readings);
+  const found = checkConsistency(finding, readings);
+  if (!verified) return found;
+  // A verification ticked as holding while a reading after the repair lies outside its good band
+  // (1.5 µA ticked as "in the good band") is flagged.
+  const after = [...(path ?? []), ...(extra ? [extra] : [])].filter((a) => a.stepId.startsWith('recheck--') && a.verdict !== 'within');
+  for (const a of after) {
+    const step = getStep(version, a.stepId);
+    const good = step?.kind === 'measure' ? step.bands.find((b) => b.verdict === 'within') : undefined;
+    found.push({
+      stepId: a.stepId,
+      value: a.value ?? Number.POSITIVE_INFINITY,
+      expected: { ...(good?.from !== undefined ? { from: good.from } : {}), ...(good?.to !== undefined ? { to: good.to } : {}) },
+      reason: `The repair was ticked as verified, but "${step?.title ?? a.stepId}" read ${a.text ?? a.value} (${a.bandLabel ?? 'outside the good band'}).`,
+      takenAt: a.createdAt.toISOString(),
+    });
+  }
+  return found;
 }
 
 /** What an answer to `step` stores and tells the machine, or a 400 saying what is wrong with it. */
-function readAnswer(version: TreeVersion, input: AnswerInput) {
+function readAnswer(version: TreeVersion, input: AnswerInput, readings: Record<string, number>) {
   const step = getStep(version, input.stepId);
   if (!step) {
     throw new AppError('bad_request', `"${input.stepId}" is not a step of this tree version.`, {
@@ -208,25 +339,40 @@ function readAnswer(version: TreeVersion, input: AnswerInput) {
   const machine: DiagnosisAnswer = { stepId: step.id };
   let verdict: AnswerResult['verdict'];
   if (step.kind === 'measure') {
-    const parsed = parseReading(step.quantity, input.text ?? '', input.unit);
-    if (!parsed.ok) throw new AppError('bad_request', parsed.message, { fieldErrors: { text: [parsed.message] } });
-    const evaluation = evaluateReading(step, parsed.value);
+    let value: number;
+    if (input.overRange) {
+      // "OL": over the meter's range, an open circuit. Only a resistance reading has one.
+      if (step.quantity !== 'ohm') {
+        const message = 'OL (over range) is only for a resistance reading. Enter the value the meter shows.';
+        throw new AppError('bad_request', message, { fieldErrors: { text: [message] } });
+      }
+      value = Number.POSITIVE_INFINITY;
+      Object.assign(stored, { text: 'OL', value: null, unit: input.unit ?? 'Ω', overRange: true });
+      machine.overRange = true;
+    } else {
+      const parsed = parseReading(step.quantity, input.text ?? '', input.unit);
+      if (!parsed.ok) throw new AppError('bad_request', parsed.message, { fieldErrors: { text: [parsed.message] } });
+      value = parsed.value;
+      Object.assign(stored, { text: input.text, value, unit: parsed.unit });
+      machine.value = value;
+    }
+    const evaluation = evaluateReading(step, value, readings);
+    if (evaluation.band.askAgain) {
+      // Not a reading of the unit (leads reversed, the wrong meter function): nothing is stored.
+      throw new AppError('bad_request', evaluation.band.askAgain, { fieldErrors: { text: [evaluation.band.askAgain] } });
+    }
     Object.assign(stored, {
-      text: input.text,
-      value: parsed.value,
-      unit: parsed.unit,
       quantity: step.quantity,
       bandIndex: evaluation.index,
       bandLabel: evaluation.band.label,
       verdict: evaluation.verdict,
     });
-    machine.value = parsed.value;
     verdict = {
       band: evaluation.band.label,
-      outcome: evaluation.outcome,
+      outcome: evaluation.outcome!,
       position: evaluation.position,
       verdict: evaluation.verdict,
-      value: parsed.value,
+      value: Number.isFinite(value) ? value : Number.MAX_VALUE,
     };
   } else if (step.kind === 'inspect') {
     const choice = step.choices.find((c) => c.value === input.choice);
@@ -234,23 +380,55 @@ function readAnswer(version: TreeVersion, input: AnswerInput) {
       const message = `Choose one of: ${step.choices.map((c) => c.value).join(', ')}.`;
       throw new AppError('bad_request', message, { fieldErrors: { choice: [message] } });
     }
+    if (step.note?.required && !input.note) {
+      const message = `${step.note.label}: write what you saw.`;
+      throw new AppError('bad_request', message, { fieldErrors: { note: [message] } });
+    }
     stored.choice = choice.value;
+    if (input.note) stored.text = input.note;
     machine.choice = choice.value;
-  } else if (step.kind === 'action') {
+  } else if (step.kind === 'action' || step.kind === 'finding') {
     if (input.confirmed !== true) {
-      throw new AppError('bad_request', 'Confirm the step once it is done.', { fieldErrors: { confirmed: ['Confirm the step.'] } });
+      const message = step.kind === 'finding' ? 'Confirm the repair once it is done.' : 'Confirm the step once it is done.';
+      throw new AppError('bad_request', message, { fieldErrors: { confirmed: [message] } });
     }
     stored.confirmed = true;
     machine.confirmed = true;
   } else {
-    throw new AppError('conflict', 'A finding is where a diagnosis ends; it takes no answer.');
+    throw new AppError('bad_request', `"${step.title}" is answered from the unit record, not by hand.`, {
+      fieldErrors: { stepId: ['Answered from the unit record.'] },
+    });
   }
   return { step, stored, machine, verdict };
 }
 
 /**
+ * The earlier readings an answer needs, from this diagnosis's path: those a step's bands are
+ * relative to, and, from the finding on, whether the walk took the readings retaken after a repair.
+ * Every other answer needs none, so the path is read only for these.
+ */
+async function readingsFor(
+  { companyId, diagnosisId, version, stepId }: { companyId: string; diagnosisId: string; version: TreeVersion; stepId: string },
+  trx: Knex,
+): Promise<Record<string, number>> {
+  const step = getStep(version, stepId);
+  const relative = step?.kind === 'measure' && (step as MeasureStep).reference;
+  const phase = phaseOf(version, stepId);
+  if (!relative && (phase === 'walk' || phase === 'procedure')) return {};
+  const readings: Record<string, number> = {};
+  for (const a of await listPathAnswers({ companyId, diagnosisId }, trx)) {
+    if (a.value !== null) readings[a.stepId] = a.value;
+    else if (a.overRange) readings[a.stepId] = Number.POSITIVE_INFINITY;
+  }
+  return readings;
+}
+
+const OPEN_STATUSES = ['in_progress', 'found'];
+
+/**
  * Saves one answer: idempotent by the client's id, checked against the current step kept on the
- * diagnosis row, moved on by one machine transition, answered with what the wizard needs next.
+ * diagnosis row, moved on by one machine transition (and the unit-record branches after it),
+ * answered with what the wizard needs next.
  */
 export async function answerDiagnosis({ scope, id, input }: { scope: Scope; id: string; input: AnswerInput }): Promise<AnswerResult> {
   return db.transaction(async (trx) => {
@@ -267,9 +445,13 @@ export async function answerDiagnosis({ scope, id, input }: { scope: Scope; id: 
 
     // The answer is checked against the step it names first, so bad input is a 400 whatever the
     // diagnosis's state; only a well-formed answer to a step that is not current is a 409.
-    const { step, stored, machine, verdict } = readAnswer(version, input);
+    const readings = await readingsFor({ companyId: scope.companyId, diagnosisId: id, version, stepId: input.stepId }, trx);
+    const { step, stored, machine, verdict } = readAnswer(version, input, readings);
     if (isClosed(call.status)) throw closedConflict();
-    if (diagnosis.status !== 'in_progress') throw new AppError('conflict', 'This diagnosis has ended. Undo the last answer to change it.');
+    if (diagnosis.status === 'escalated') throw new AppError('conflict', 'This diagnosis was escalated; its answers cannot change.');
+    if (!OPEN_STATUSES.includes(diagnosis.status)) {
+      throw new AppError('conflict', 'This visit is finished: the repair is verified. Undo the last answer to change it.');
+    }
     const state = await stateOf(diagnosis, version, trx);
     if (step.id !== state.stateId) {
       const current = getStep(version, state.stateId);
@@ -278,9 +460,12 @@ export async function answerDiagnosis({ scope, id, input }: { scope: Scope; id: 
         `This diagnosis is at "${current?.title ?? state.stateId}", not at "${step.title}". Reload to see where it stands.`,
       );
     }
-    const moved = advance(version, state, machine);
+    const moved = advance(version, state, machine, { unit: call.unit, readings });
     if (!moved.ok) throw new AppError('bad_request', moved.error);
-    const finding = moved.step.kind === 'finding' ? moved.step : null;
+    const status = statusOf(version, moved.state.stateId);
+    const phase = phaseOf(version, moved.state.stateId);
+    const finding = findingOf(version, moved.state.findingId);
+    const reachedFinding = finding !== null && phase === 'repair' && step.kind !== 'finding';
 
     const record: AnswerRecord = {
       id: crypto.randomUUID(),
@@ -298,18 +483,33 @@ export async function answerDiagnosis({ scope, id, input }: { scope: Scope; id: 
       verdict: null,
       choice: null,
       confirmed: null,
+      overRange: false,
+      auto: false,
       ...stored,
     } as AnswerRecord;
-    const contradictions = finding
-      ? await contradictionsFor({ companyId: scope.companyId, callId: call.id, treeVersionId: version.id, finding, extra: record }, trx)
-      : [];
-    const status = finding ? 'found' : 'in_progress';
+    const autos = autoRecords(version, moved.autos, record.seq + 1, scope.userId);
+    const contradictions =
+      finding && (reachedFinding || phase === 'done')
+        ? await contradictionsFor(
+            {
+              companyId: scope.companyId,
+              callId: call.id,
+              version,
+              finding,
+              extra: record,
+              path: phase === 'done' ? await listPathAnswers({ companyId: scope.companyId, diagnosisId: id }, trx) : [],
+              verified: phase === 'done',
+            },
+            trx,
+          )
+        : [];
     const result: AnswerResult = {
       answer: toApiAnswer(record, version),
-      next: finding ? null : toApiStep(moved.step),
+      next: phase === 'done' ? null : toApiStep(moved.step),
       finding: finding ? toApiFinding(finding) : null,
       ...(verdict ? { verdict } : {}),
-      diagnosis: { status, energy: moved.state.energy, contradictions },
+      diagnosis: { status, ...energyOut(moved.state.energy), phase, contradictions },
+      auto: autos.map((a) => toApiAnswer(a, version)),
     };
     await insertAnswer(
       {
@@ -324,6 +524,7 @@ export async function answerDiagnosis({ scope, id, input }: { scope: Scope; id: 
       },
       trx,
     );
+    await insertAutos({ companyId: scope.companyId, diagnosisId: id, records: autos }, trx);
     await saveDiagnosisState(
       {
         companyId: scope.companyId,
@@ -332,7 +533,7 @@ export async function answerDiagnosis({ scope, id, input }: { scope: Scope; id: 
         findingStepId: finding?.id ?? null,
         currentState: moved.state.stateId,
         energy: moved.state.energy,
-        lastSeq: record.seq,
+        lastSeq: record.seq + autos.length,
       },
       trx,
     );
@@ -341,29 +542,38 @@ export async function answerDiagnosis({ scope, id, input }: { scope: Scope; id: 
 }
 
 /**
- * Takes the last answer off the path (the row stays). With `last` (the client id of the answer the
- * client sees as last), a second undo sent at the same time is a 409 instead of undoing one more.
+ * Takes the last answer off the path (the row stays), with the unit-record branches taken after
+ * it. With `last` (the client id of the answer the client sees as last), a second undo sent at the
+ * same time is a 409 instead of undoing one more. A signed-off or escalated diagnosis keeps its
+ * answers.
  */
 export async function undoLastAnswer({ scope, id, last }: { scope: Scope; id: string; last?: string }) {
   return db.transaction(async (trx) => {
     const call = await getCallOfDiagnosis({ scope, diagnosisId: id, lock: 'share' }, trx);
     const diagnosis = await getDiagnosis({ companyId: scope.companyId, id, forUpdate: true }, trx);
     if (isClosed(call.status)) throw closedConflict();
+    if (diagnosis.signedOffBy) throw new AppError('conflict', 'This finding was signed off; its answers cannot change.');
+    if (diagnosis.status === 'escalated') throw new AppError('conflict', 'This diagnosis was escalated; its answers cannot change.');
     const version = machineVersion(await getTreeVersion({ companyId: scope.companyId, id: diagnosis.treeVersionId }, trx));
     const state = await stateOf(diagnosis, version, trx);
     const answers = await listPathAnswers({ companyId: scope.companyId, diagnosisId: id }, trx);
-    const undone = answers.at(-1);
+    // The technician's last answer, and the unit-record branches the diagnosis took after it.
+    let cut = answers.length;
+    while (cut > 0 && answers[cut - 1].auto) cut--;
+    const undone = answers[cut - 1];
     if (!undone) throw new AppError('conflict', 'There is no answer to undo.');
     if (last && undone.clientId !== last)
       throw new AppError('conflict', 'That answer is no longer the last one: the diagnosis changed. Reload to see where it stands.');
-    if (!(await markAnswerUndone({ id: undone.id }, trx))) throw new AppError('conflict', 'That answer was already undone.');
-    const after = walkStateOf(replayOrFail(version, answers.slice(0, -1)));
+    for (const a of answers.slice(cut - 1).reverse()) {
+      if (!(await markAnswerUndone({ id: a.id }, trx))) throw new AppError('conflict', 'That answer was already undone.');
+    }
+    const after = walkStateOf(replayOrFail(version, answers.slice(0, cut - 1)));
     await saveDiagnosisState(
       {
         companyId: scope.companyId,
         id,
-        status: 'in_progress',
-        findingStepId: null,
+        status: statusOf(version, after.stateId),
+        findingStepId: after.findingId,
         currentState: after.stateId,
         energy: after.energy,
         lastSeq: state.lastSeq,
@@ -375,17 +585,39 @@ export async function undoLastAnswer({ scope, id, last }: { scope: Scope; id: st
   });
 }
 
+/**
+ * "None of these fits" / "I can't take this reading": ends the diagnosis as escalated with the
+ * technician's note, where the company's leads see it. Of two at once, one wins.
+ */
+export async function escalate({ scope, id, note }: { scope: Scope; id: string; note: string }) {
+  return db.transaction(async (trx) => {
+    const call = await getCallOfDiagnosis({ scope, diagnosisId: id, lock: 'share' }, trx);
+    if (isClosed(call.status)) throw closedConflict();
+    await getDiagnosis({ companyId: scope.companyId, id, forUpdate: true }, trx);
+    if (!(await escalateDiagnosis({ companyId: scope.companyId, id, userId: scope.userId, note }, trx))) {
+      throw new AppError('conflict', 'This diagnosis has already ended (escalated or verified).');
+    }
+    return getDiagnosisView({ scope, id }, trx);
+  });
+}
+
 /** A technician, lead or admin signs off someone else's finding; of two sign-offs at once, one wins. */
-export async function signOffFinding({ scope, id }: { scope: Scope; id: string }) {
+export async function signOffFinding({ scope, id, comment }: { scope: Scope; id: string; comment?: string }) {
   return db.transaction(async (trx) => {
     const call = await getCallOfDiagnosis({ scope, diagnosisId: id, lock: 'share' }, trx);
     if (isClosed(call.status)) throw closedConflict();
     const diagnosis = await getDiagnosis({ companyId: scope.companyId, id, forUpdate: true }, trx);
-    if (diagnosis.status !== 'found') throw new AppError('conflict', 'Only a diagnosis that reached its finding can be signed off.');
+    if (diagnosis.status !== 'found' && diagnosis.status !== 'verified') {
+      throw new AppError('conflict', 'Only a diagnosis that reached its finding can be signed off.');
+    }
     if (diagnosis.userId === scope.userId) throw new AppError('forbidden', 'Someone else signs off your own finding.');
     if (!(await signOffDiagnosis({ companyId: scope.companyId, id, userId: scope.userId }, trx))) {
       throw new AppError('conflict', 'This finding was already signed off.');
     }
+    await recordCallEvent(
+      { companyId: scope.companyId, callId: call.id, diagnosisId: id, kind: 'signed_off', actorId: scope.userId, note: comment ?? null },
+      trx,
+    );
     return getDiagnosisView({ scope, id }, trx);
   });
 }

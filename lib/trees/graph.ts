@@ -2,7 +2,8 @@
 import type { Step, TreeGraph } from '@/lib/trees/schema';
 
 /** How an edge is chosen: a band of a measure step, a choice of an inspect step, or a confirmation. */
-export type EdgeVia = { kind: 'band'; index: number } | { kind: 'choice'; value: string } | { kind: 'confirm' };
+export type EdgeVia =
+  { kind: 'band'; index: number } | { kind: 'choice'; value: string } | { kind: 'case'; value: string } | { kind: 'confirm' };
 
 export interface Edge {
   from: string;
@@ -10,14 +11,42 @@ export interface Edge {
   via: EdgeVia;
 }
 
-/** Prefixes of the procedure steps the diagnosis inserts; tree step ids must not use them. */
+/**
+ * The energy changes the diagnosis can insert before a step, in the order they are done: what goes
+ * off first (electricity, then gas), then what comes back (gas with its leak test, then power).
+ */
+export const ENERGY_CHANGES = ['lock-out', 'gas-off', 'gas-on', 're-energize'] as const;
+export type EnergyChange = (typeof ENERGY_CHANGES)[number];
+
+/**
+ * An inserted procedure's state id: its changes joined by "+", "--", the step it leads to
+ * ("lock-out--spark-gap", "gas-on+re-energize--inlet-pressure"). Tree step ids must not look like one.
+ */
+export function procedureStateId(changes: readonly EnergyChange[], targetId: string): string {
+  return `${changes.join('+')}--${targetId}`;
+}
+
+/** The changes and target of a procedure state id, or null for a tree step id. */
+export function parseProcedureStateId(stateId: string): { changes: EnergyChange[]; targetId: string } | null {
+  const at = stateId.indexOf('--');
+  if (at <= 0) return null;
+  const changes = stateId.slice(0, at).split('+');
+  if (!changes.every((c): c is EnergyChange => (ENERGY_CHANGES as readonly string[]).includes(c))) return null;
+  return { changes: changes as EnergyChange[], targetId: stateId.slice(at + 2) };
+}
+
+/** The first revision's names for the two electric procedures (still valid state ids). */
 export const LOCK_OUT_PREFIX = 'lock-out--';
 export const RE_ENERGIZE_PREFIX = 're-energize--';
 
 export function outgoingEdges(step: Step): Edge[] {
   switch (step.kind) {
     case 'measure':
-      return step.bands.map((band, index) => ({ from: step.id, to: band.outcome, via: { kind: 'band', index } }));
+      return step.bands.flatMap((band, index) =>
+        band.outcome === undefined ? [] : [{ from: step.id, to: band.outcome, via: { kind: 'band' as const, index } }],
+      );
+    case 'fact':
+      return step.cases.map((c) => ({ from: step.id, to: c.outcome, via: { kind: 'case', value: c.value } }));
     case 'inspect':
       return step.choices.map((choice) => ({ from: step.id, to: choice.outcome, via: { kind: 'choice', value: choice.value } }));
     case 'action':

@@ -18,14 +18,32 @@ export const CANONICAL_UNITS: Record<Quantity, string> = {
 };
 
 /**
- * The energy state a step needs. `any` is for steps that do not care (a look at the thermostat
- * display, a finding's summary). The diagnosis inserts the lock-out or re-energize procedure
- * whenever the next step needs the other state.
+ * Two energy sources: the electric supply (the unit's disconnect) and the gas (the appliance valve
+ * and the manual shut-off). A step declares what it needs of each: `on`, `off`, or `any` (a look at
+ * the thermostat display, a question the unit record answers). The diagnosis inserts the procedure
+ * that changes what must change before the step (lock-out, gas off, gas on with a leak test,
+ * re-energize). A finding's energy is what its repair needs.
  */
-export const ENERGY_STATES = ['energized', 'locked-out'] as const;
-export const energyNeedSchema = z.enum(['energized', 'locked-out', 'any']);
-export type EnergyState = (typeof ENERGY_STATES)[number];
-export type EnergyNeed = z.infer<typeof energyNeedSchema>;
+export const ENERGY_SOURCES = ['electric', 'gas'] as const;
+export type EnergySource = (typeof ENERGY_SOURCES)[number];
+export const sourceStateSchema = z.enum(['on', 'off']);
+export const sourceNeedSchema = z.enum(['on', 'off', 'any']);
+export type SourceState = z.infer<typeof sourceStateSchema>;
+export type SourceNeed = z.infer<typeof sourceNeedSchema>;
+export type EnergyState = Record<EnergySource, SourceState>;
+export type EnergyNeed = Record<EnergySource, SourceNeed>;
+
+/** The one-source form of the first tree revision: electricity only, gas unknown ("any"). */
+const LEGACY_ENERGY: Record<string, EnergyNeed> = {
+  energized: { electric: 'on', gas: 'any' },
+  'locked-out': { electric: 'off', gas: 'any' },
+  any: { electric: 'any', gas: 'any' },
+};
+
+export const energyNeedSchema = z.preprocess(
+  (value) => (typeof value === 'string' && value in LEGACY_ENERGY ? LEGACY_ENERGY[value] : value),
+  z.object({ electric: sourceNeedSchema, gas: sourceNeedSchema }),
+);
 
 /** ANSI Z535 signal words, most severe first. */
 export const SIGNAL_WORDS = ['DANGER', 'WARNING', 'CAUTION', 'NOTICE'] as const;
@@ -48,13 +66,23 @@ export type Verdict = z.infer<typeof verdictSchema>;
  * One band of a measure step, in the quantity's canonical unit. `from` is inclusive, `to` is
  * exclusive; a missing limit is open (minus or plus infinity).
  */
-export const bandSchema = z.object({
-  from: z.number().finite().optional(),
-  to: z.number().finite().optional(),
-  label: z.string().trim().min(1, 'A band needs a label'),
-  verdict: verdictSchema,
-  outcome: stepIdSchema,
-});
+export const bandSchema = z
+  .object({
+    from: z.number().finite().optional(),
+    to: z.number().finite().optional(),
+    label: z.string().trim().min(1, 'A band needs a label'),
+    verdict: verdictSchema,
+    /** The step a reading in this band leads to. */
+    outcome: stepIdSchema.optional(),
+    /**
+     * Instead of an outcome: a reading here is not taken (leads reversed, wrong meter function),
+     * and the technician is told this and measures again.
+     */
+    askAgain: z.string().trim().min(1).optional(),
+  })
+  .refine((b) => (b.outcome === undefined) !== (b.askAgain === undefined), {
+    message: 'A band needs either an outcome or an "ask again" message, not both',
+  });
 export type Band = z.infer<typeof bandSchema>;
 
 const stepBase = {
@@ -65,6 +93,11 @@ const stepBase = {
   /** A note for learners: why this step comes here. */
   why: z.string().trim().optional(),
   energy: energyNeedSchema,
+  /**
+   * The energy sources of the parts this step has someone handle (open, remove, connect to). The
+   * validator refuses a step that handles a source it does not need off.
+   */
+  handles: z.array(z.enum(ENERGY_SOURCES)).default([]),
 };
 
 /** Computation aids the wizard offers beside a measure step. */
@@ -77,6 +110,12 @@ export const measureStepSchema = z.object({
   /** The two test points the meter goes between (for microamps: the meter in series between them). */
   points: z.tuple([z.string().trim().min(1), z.string().trim().min(1)]),
   bands: z.array(bandSchema).min(1, 'A measure step needs at least one band'),
+  /**
+   * Bands relative to an earlier reading of the walk: each limit is added to that step's reading
+   * (a valve voltage judged against the transformer secondary read just before). `fallback` stands
+   * in when the walk did not take that reading.
+   */
+  reference: z.object({ step: stepIdSchema, fallback: z.number().finite() }).optional(),
   /** Where the default bands come from, shown beside them ("default — common practice, a lead can change"). */
   bandsNote: z.string().trim().optional(),
   aids: z.array(z.enum(AIDS)).default([]),
@@ -92,6 +131,30 @@ export const inspectStepSchema = z.object({
   ...stepBase,
   kind: z.literal('inspect'),
   choices: z.array(choiceSchema).min(2, 'An inspect step needs at least two choices'),
+  /** A note the technician writes with the choice (what a status light shows, against the control's own legend). */
+  note: z.object({ label: z.string().trim().min(1), required: z.boolean().default(false) }).optional(),
+});
+
+/** Facts of the unit record a tree can branch on, with the values each can take. */
+export const UNIT_FACTS = {
+  ignition: ['two-rod', 'single-rod'],
+  fuel: ['natural-gas', 'lp'],
+  controlSupply: ['24v', 'line'],
+  draft: ['induced', 'natural'],
+} as const;
+export type UnitFact = keyof typeof UNIT_FACTS;
+export type UnitFacts = { [F in UnitFact]: (typeof UNIT_FACTS)[F][number] };
+export const unitFactSchema = z.enum(Object.keys(UNIT_FACTS) as [UnitFact, ...UnitFact[]]);
+
+/**
+ * A branch the unit record answers: no question is asked, the diagnosis takes the case of the
+ * unit's fact and shows "from the unit record" on the path.
+ */
+export const factStepSchema = z.object({
+  ...stepBase,
+  kind: z.literal('fact'),
+  fact: unitFactSchema,
+  cases: z.array(choiceSchema).min(2, 'A unit-record branch needs a case for each value'),
 });
 
 export const actionStepSchema = z.object({
@@ -123,17 +186,29 @@ export const findingStepSchema = z.object({
   expects: z.array(expectationSchema).default([]),
 });
 
-export const stepSchema = z.discriminatedUnion('kind', [measureStepSchema, inspectStepSchema, actionStepSchema, findingStepSchema]);
+export const stepSchema = z.discriminatedUnion('kind', [
+  measureStepSchema,
+  inspectStepSchema,
+  actionStepSchema,
+  factStepSchema,
+  findingStepSchema,
+]);
 
 export const treeGraphSchema = z.object({
   start: stepIdSchema,
   steps: z.array(stepSchema).min(1),
+  /**
+   * Readings taken again after any repair, when the walk took them before (the flame signal), each
+   * with the action step that sets the meter up again; they are saved like any reading.
+   */
+  afterRepair: z.array(z.object({ measure: stepIdSchema, reconnect: stepIdSchema.optional() })).default([]),
 });
 
 export type MeasureStep = z.infer<typeof measureStepSchema>;
 export type InspectStep = z.infer<typeof inspectStepSchema>;
 export type ActionStep = z.infer<typeof actionStepSchema>;
 export type FindingStep = z.infer<typeof findingStepSchema>;
+export type FactStep = z.infer<typeof factStepSchema>;
 export type Step = z.infer<typeof stepSchema>;
 export type StepKind = Step['kind'];
 /** A graph as authored (defaults not yet applied). */

@@ -3,8 +3,8 @@
 // every path ending at a finding, bands covering the number line exactly once).
 import type { z } from 'zod';
 import { checkBandCoverage } from '@/lib/bands';
-import { findCycles, LOCK_OUT_PREFIX, outgoingEdges, reachableFrom, RE_ENERGIZE_PREFIX, stepMap } from '@/lib/trees/graph';
-import { treeGraphSchema, type TreeGraph } from '@/lib/trees/schema';
+import { findCycles, outgoingEdges, reachableFrom, stepMap } from '@/lib/trees/graph';
+import { treeGraphSchema, UNIT_FACTS, type TreeGraph } from '@/lib/trees/schema';
 
 export interface GraphProblem {
   stepId?: string;
@@ -31,11 +31,21 @@ export function checkGraph(graph: TreeGraph): GraphProblem[] {
   for (const step of graph.steps) {
     if (seen.has(step.id)) problems.push({ stepId: step.id, message: `The step id "${step.id}" is used more than once` });
     seen.add(step.id);
-    if (step.id.startsWith(LOCK_OUT_PREFIX) || step.id.startsWith(RE_ENERGIZE_PREFIX)) {
+    if (step.id.includes('--')) {
       problems.push({
         stepId: step.id,
-        message: `Step ids starting with "${LOCK_OUT_PREFIX}" or "${RE_ENERGIZE_PREFIX}" are reserved for the procedures the diagnosis inserts`,
+        message: `Step ids with "--" are reserved for the steps the diagnosis inserts (procedures, the repair and its checks)`,
       });
+    }
+    // Nobody handles a part with its energy on: a step that has someone open, remove or connect to
+    // a part must need that part's energy off, so the diagnosis isolates it first.
+    for (const source of step.handles) {
+      if (step.energy[source] !== 'off') {
+        problems.push({
+          stepId: step.id,
+          message: `Step "${step.id}" handles parts fed by ${source === 'gas' ? 'gas' : 'electricity'}, so it must need ${source === 'gas' ? 'the gas' : 'the power'} off`,
+        });
+      }
     }
   }
 
@@ -56,6 +66,41 @@ export function checkGraph(graph: TreeGraph): GraphProblem[] {
 
     if (step.kind === 'measure') {
       for (const p of checkBandCoverage(step.bands)) problems.push({ stepId: step.id, message: `Bands of "${step.id}": ${p}` });
+      if (step.bands.every((b) => b.outcome === undefined)) {
+        problems.push({ stepId: step.id, message: `Step "${step.id}" has no band that leads on: every band asks again` });
+      }
+      if (step.reference) {
+        const ref = steps.get(step.reference.step);
+        if (!ref || ref.kind !== 'measure' || ref.id === step.id) {
+          problems.push({
+            stepId: step.id,
+            message: `Bands of "${step.id}" are relative to "${step.reference.step}", which is not another measure step`,
+          });
+        } else if (ref.quantity !== step.quantity) {
+          problems.push({
+            stepId: step.id,
+            message: `Bands of "${step.id}" are relative to "${ref.id}", which measures another quantity`,
+          });
+        }
+      }
+    }
+
+    if (step.kind === 'fact') {
+      const allowed: readonly string[] = UNIT_FACTS[step.fact];
+      const values = step.cases.map((c) => c.value);
+      for (const value of values) {
+        if (!allowed.includes(value)) {
+          problems.push({
+            stepId: step.id,
+            message: `Step "${step.id}": "${value}" is not a value of ${step.fact} (${allowed.join(', ')})`,
+          });
+        }
+      }
+      for (const value of allowed) {
+        if (values.filter((v) => v === value).length !== 1) {
+          problems.push({ stepId: step.id, message: `Step "${step.id}" needs exactly one case for ${step.fact} = ${value}` });
+        }
+      }
     }
 
     if (step.kind === 'inspect') {
@@ -88,6 +133,21 @@ export function checkGraph(graph: TreeGraph): GraphProblem[] {
           });
         }
       }
+    }
+  }
+
+  for (const retake of graph.afterRepair) {
+    if (steps.get(retake.measure)?.kind !== 'measure') {
+      problems.push({
+        stepId: retake.measure,
+        message: `The reading taken again after a repair, "${retake.measure}", is not a measure step`,
+      });
+    }
+    if (retake.reconnect !== undefined && steps.get(retake.reconnect)?.kind !== 'action') {
+      problems.push({
+        stepId: retake.reconnect,
+        message: `The set-up before the reading after a repair, "${retake.reconnect}", is not an action step`,
+      });
     }
   }
 

@@ -8,7 +8,7 @@ import { ROLES } from '@/lib/roles';
 import { CALL_STATUSES } from '@/lib/validations/field';
 import {
   actionStepSchema,
-  ENERGY_STATES,
+  factStepSchema,
   findingStepSchema,
   inspectStepSchema,
   measureStepSchema,
@@ -21,8 +21,10 @@ const optionalDate = isoDate.nullable();
 
 const roleSchema = z.enum(ROLES);
 const callStatusSchema = z.enum(CALL_STATUSES);
-const diagnosisStatusSchema = z.enum(['in_progress', 'found', 'escalated']);
-const energySchema = z.enum(ENERGY_STATES);
+const diagnosisStatusSchema = z.enum(['in_progress', 'found', 'verified', 'escalated']);
+/** The electric state as the first clients read it ("energized" / "locked-out"); `gas` beside it. */
+const energySchema = z.enum(['energized', 'locked-out']);
+const gasSchema = z.enum(['on', 'off']);
 
 // ── Results every action shares ─────────────────────────────────────────────────────────────────
 
@@ -84,6 +86,7 @@ export const unitOutSchema = z.object({
   ignition: z.enum(['two-rod', 'single-rod']),
   fuel: z.enum(['natural-gas', 'lp']),
   controlSupply: z.enum(['24v', 'line']),
+  draft: z.enum(['induced', 'natural']),
   transformerVa: z.number(),
   installYear: z.number().nullable(),
 });
@@ -161,10 +164,15 @@ export const callStatusResultSchema = z.object({ id: z.string(), status: callSta
 
 // A step as the API sends it: the tree's own step, with the measure step's canonical unit and
 // without what only the server needs (a finding's expectations).
+// The steps the diagnosis inserts (energy procedures, the repair's checks, readings retaken after
+// it) have state ids built from tree step ids ("gas-on+re-energize--recheck--flame-signal--f-…"),
+// so the id, and an action's outcome, are any string here, not a tree step id.
+const stateId = z.string().min(1);
 export const apiStepSchema = z.discriminatedUnion('kind', [
-  measureStepSchema.extend({ unit: z.string() }),
+  measureStepSchema.extend({ unit: z.string(), id: stateId }),
   inspectStepSchema,
-  actionStepSchema,
+  actionStepSchema.extend({ id: stateId, outcome: stateId }),
+  factStepSchema,
   findingStepSchema.omit({ expects: true }),
 ]);
 export type ApiStep = z.output<typeof apiStepSchema>;
@@ -187,6 +195,10 @@ export const apiAnswerSchema = z.object({
   choice: z.string().nullable(),
   choiceLabel: z.string().nullable(),
   confirmed: z.boolean().nullable(),
+  /** An ohms reading over the meter's range ("OL"): stored without a value. */
+  overRange: z.boolean(),
+  /** A unit-record branch the diagnosis took by itself (kind "fact"): not the technician's answer. */
+  auto: z.boolean(),
   at: isoDate,
 });
 export type ApiAnswer = z.output<typeof apiAnswerSchema>;
@@ -209,6 +221,10 @@ export const diagnosisViewSchema = z.object({
   startedBy: z.object({ id: z.string().nullable(), name: z.string().nullable(), role: roleSchema.nullable() }),
   signedOff: z.object({ by: z.string().nullable(), at: optionalDate }).nullable(),
   energy: energySchema,
+  gas: gasSchema,
+  /** Where the visit stands: walking the tree, at the repair, retaking readings, verifying, done. */
+  phase: z.enum(['walk', 'procedure', 'repair', 'reconnect', 'recheck', 'verify', 'done']),
+  escalation: z.object({ note: z.string(), by: z.string().nullable(), at: optionalDate }).nullable(),
   path: z.array(apiAnswerSchema),
   current: apiStepSchema.nullable(),
   finding: apiFindingSchema.nullable(),
@@ -229,9 +245,30 @@ export const answerResultSchema = z.object({
   next: apiStepSchema.nullable(),
   finding: apiFindingSchema.nullable(),
   verdict: z.object({ band: z.string(), outcome: z.string(), position: z.number(), verdict: z.string(), value: z.number() }).optional(),
-  diagnosis: z.object({ status: diagnosisStatusSchema, energy: energySchema, contradictions: z.array(contradictionSchema) }),
+  diagnosis: z.object({
+    status: diagnosisStatusSchema,
+    energy: energySchema,
+    gas: gasSchema,
+    phase: z.enum(['walk', 'procedure', 'repair', 'reconnect', 'recheck', 'verify', 'done']),
+    contradictions: z.array(contradictionSchema),
+  }),
+  /** Unit-record branches the diagnosis took by itself after this answer, in order. */
+  auto: z.array(apiAnswerSchema).default([]),
 });
 export type AnswerResult = z.output<typeof answerResultSchema>;
+
+export const escalationListSchema = z.array(
+  z.object({
+    diagnosisId: z.string(),
+    callId: z.string(),
+    note: z.string(),
+    at: isoDate,
+    by: z.string().nullable(),
+    unit: z.string(),
+    site: z.string(),
+  }),
+);
+export type EscalationOut = z.output<typeof escalationListSchema>[number];
 
 // ── Trees ───────────────────────────────────────────────────────────────────────────────────────
 

@@ -29,6 +29,8 @@ export const unitSchema = z.object(
     ignition: z.enum(['two-rod', 'single-rod'], { error: 'Ignition is two-rod or single-rod.' }),
     fuel: z.enum(['natural-gas', 'lp'], { error: 'Fuel is natural-gas or lp.' }),
     controlSupply: z.enum(['24v', 'line'], { error: 'Control supply is 24v or line.' }),
+    // Optional, so that clients written before it keep working: most DSI furnaces are induced-draft.
+    draft: z.enum(['induced', 'natural'], { error: 'Draft is induced or natural.' }).default('induced'),
     transformerVa: wholeNumber({
       label: 'The transformer rating',
       min: 10,
@@ -97,10 +99,26 @@ export const answerSchema = z.strictObject(
     unit: singleLine({ label: 'The unit of the reading', max: 20, trim: false }).optional(),
     choice: singleLine({ label: 'The choice', max: 100, trim: false }).optional(),
     confirmed: z.boolean({ error: 'confirmed is true or false.' }).optional(),
+    /** An ohms reading over the meter's range ("OL", an open circuit), sent without text or value. */
+    overRange: z.literal(true, { error: 'overRange is true, or left out.' }).optional(),
+    /** What the technician notes with a choice (a status light against the control's legend). */
+    note: multiLine({ label: 'The note', max: 500 }).optional(),
   },
   { error: objectError('the answer') },
 );
 export type AnswerInput = z.infer<typeof answerSchema>;
+
+/** "None of these fits" / "I can't take this reading": the diagnosis goes to the leads with this note. */
+export const escalateSchema = z.strictObject(
+  {
+    note: multiLine({
+      label: 'The note',
+      max: 1000,
+      required: 'Say what you saw, or why the reading cannot be taken, so a lead can pick it up.',
+    }),
+  },
+  { error: objectError('the escalation') },
+);
 
 export const repairSchema = z.object(
   {

@@ -38,13 +38,13 @@ const ACTIONS: [string, (raw: unknown) => Promise<ActionResult<unknown> & Outcom
   ['createUnitAction', calls.createUnitAction, 'units.create'],
   ['createCallAction', calls.createCallAction, 'calls.create'],
   ['startDiagnosisAction', calls.startDiagnosisAction, 'diagnoses.start'],
-  ['saveRepairAction', calls.saveRepairAction, 'calls.recordRepair'],
   ['signOffAction', calls.signOffAction, 'diagnoses.signOff'],
   ['closeCallAction', calls.closeCallAction, 'calls.close'],
   ['reopenCallAction', calls.reopenCallAction, 'calls.reopen'],
   ['assignCallAction', calls.assignCallAction, 'calls.assign'],
   ['submitAnswerAction', diagnoses.submitAnswerAction, 'diagnoses.answer'],
   ['undoAnswerAction', diagnoses.undoAnswerAction, 'diagnoses.undo'],
+  ['escalateAction', diagnoses.escalateAction, 'diagnoses.escalate'],
 ];
 
 const TABLES = ['companies', 'users', 'sites', 'units', 'service_calls', 'diagnoses', 'answers', 'call_events'];

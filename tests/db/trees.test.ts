@@ -3,7 +3,11 @@ import { randomUUID } from 'node:crypto';
 import { db } from '@/db/knex';
 import { getTreeVersion, listTrees } from '@/db/trees';
 import { DEFAULT_TREE, DEFAULT_TREE_GRAPH } from '@/lib/trees/default-tree';
+import { NO_HEAT_DSI_R1 } from '@/lib/trees/builtin/no-heat-dsi-r1';
+import { unmodifiedRevisionOf } from '@/lib/trees/builtin';
+import { treeGraphSchema } from '@/lib/trees/schema';
 import { AppError } from '@/lib/errors';
+import { seed as seedTrees } from '@/seeds/02_fault_trees';
 
 // The seeded default tree and the rule that a published version never changes, enforced by the
 // database itself (trigger tree_versions_guard). Changes run inside a rolled-back transaction.
@@ -63,6 +67,59 @@ describe('the default tree', () => {
     );
     expect(error).toBeInstanceOf(AppError);
     expect((error as AppError).code).toBe('not_found');
+  });
+});
+
+describe('built-in revisions', () => {
+  it('knows an unmodified copy of each revision, and not an edited one', () => {
+    expect(unmodifiedRevisionOf(JSON.parse(JSON.stringify(treeGraphSchema.parse(NO_HEAT_DSI_R1.graph))))).toBe(1);
+    expect(unmodifiedRevisionOf(DEFAULT_TREE_GRAPH)).toBe(2);
+    const edited = treeGraphSchema.parse(NO_HEAT_DSI_R1.graph);
+    edited.steps[0] = { ...edited.steps[0], title: 'Line voltage, our way' };
+    expect(unmodifiedRevisionOf(edited)).toBeNull();
+  });
+
+  it('publishes the current revision on start for a company still on an unmodified earlier one, once; an edited tree is left alone', async () => {
+    await inRolledBackTransaction(async (trx) => {
+      const r1 = JSON.stringify(treeGraphSchema.parse(NO_HEAT_DSI_R1.graph));
+      const edited = treeGraphSchema.parse(NO_HEAT_DSI_R1.graph);
+      edited.steps[0] = { ...edited.steps[0], title: 'Line voltage, our way' };
+      const made: Record<string, { companyId: string; treeId: string; versionId: string }> = {};
+      for (const [name, graph] of [
+        ['Untouched Heating', r1],
+        ['Edited Heating', JSON.stringify(edited)],
+      ] as const) {
+        const [company] = await trx('companies')
+          .insert({ name, office_email: `${name.split(' ')[0].toLowerCase()}@example.test` })
+          .returning('id');
+        const [tree] = await trx('fault_trees')
+          .insert({
+            company_id: company.id,
+            slug: DEFAULT_TREE.slug,
+            title: DEFAULT_TREE.title,
+            symptom: 'No heat',
+            equipment_kind: 'dsi-furnace',
+          })
+          .returning('id');
+        const [version] = await trx('tree_versions')
+          .insert({ company_id: company.id, tree_id: tree.id, version: 1, status: 'published', graph, published_at: trx.fn.now() })
+          .returning('id');
+        made[name] = { companyId: company.id, treeId: tree.id, versionId: version.id };
+      }
+      await seedTrees(trx);
+      await seedTrees(trx); // a second start publishes nothing more
+
+      const versions = async (treeId: string) =>
+        trx('tree_versions').where({ tree_id: treeId }).orderBy('version').select('version', 'status', 'graph', 'builtin_revision');
+      const untouched = await versions(made['Untouched Heating'].treeId);
+      expect(untouched.map((v) => [v.version, v.status, v.builtin_revision])).toEqual([
+        [1, 'retired', null],
+        [2, 'published', 2],
+      ]);
+      expect(treeGraphSchema.parse(untouched[1].graph)).toEqual(DEFAULT_TREE_GRAPH);
+      const editedVersions = await versions(made['Edited Heating'].treeId);
+      expect(editedVersions.map((v) => [v.version, v.status])).toEqual([[1, 'published']]);
+    });
   });
 });
 

@@ -11,13 +11,14 @@ import { DEMO, DEMO_PASSWORD, signedIn, unique, type ApiClient } from '@/tests/e
 import { SignInPage } from '@/tests/e2e/support/pages';
 import { WizardPage } from '@/tests/e2e/support/wizard-page';
 
-// The wizard in Chromium at tablet size, as the demo technician: three paths of the default tree
-// to three different findings, every reading checked on its gauge, a reload mid-way, an undo.
+// The wizard in Chromium, as the demo technician: paths of the built-in tree to their findings and
+// on through the whole visit (repair, restore, verify) at the three screen sizes, every reading
+// checked on its gauge, a reload mid-way, an undo, an "OL" entry and an escalation.
 
-const tree: TreeVersion = { id: 'default', version: 1, graph: DEFAULT_TREE_GRAPH };
+const tree: TreeVersion = { id: 'default', version: 2, graph: DEFAULT_TREE_GRAPH };
 const SHOTS = process.env.WIZARD_SHOTS_DIR;
 
-type Move = { step: string; text?: string; unit?: string; choice?: string };
+type Move = { step: string; text?: string; unit?: string; choice?: string; overRange?: true };
 
 let browser: Browser;
 let tech: ApiClient;
@@ -30,8 +31,19 @@ beforeAll(async () => {
   tech = await signedIn(DEMO.technician);
   const trees = (await tech.get('/api/trees')).json as { slug: string; published: { id: string } | null }[];
   treeVersionId = trees.find((t) => t.slug === 'no-heat-dsi' && t.published)!.published!.id;
-  const units = (await tech.get('/api/units')).json as { id: string }[];
-  unitId = units[0].id;
+  // A unit of our own: two-rod, natural gas, 24 V control, induced draft.
+  const site = await tech.post('/api/sites', { name: unique('Wizard test site'), address: '4 Gauge Row' });
+  const unit = await tech.post('/api/units', {
+    siteId: site.json.id,
+    label: 'Wizard test furnace',
+    ignition: 'two-rod',
+    fuel: 'natural-gas',
+    controlSupply: '24v',
+    draft: 'induced',
+    transformerVa: 40,
+  });
+  expect(unit.status, unit.text).toBe(201);
+  unitId = unit.json.id;
   page = await freshPage(browser);
   await page.setViewportSize(VIEWPORTS['tablet-landscape']);
   await new SignInPage(page).signIn(DEMO.technician, DEMO_PASSWORD);
@@ -76,10 +88,18 @@ async function play(wizard: WizardPage, move: Move) {
   await wizard.waitForTitle(titleOf(move.step));
   const step = getStep(tree, move.step)!;
   if (step.kind === 'measure') {
-    const shown = await wizard.enterReading(move.text!, move.unit);
-    const parsed = parseReading(step.quantity, move.text!, move.unit ?? undefined);
-    if (!parsed.ok) throw new Error(parsed.message);
-    const band = findBand(step.bands, parsed.value)!.band;
+    let value: number;
+    let shown: { verdict: string | null; line: string };
+    if (move.overRange) {
+      shown = await wizard.enterOverRange();
+      value = Number.POSITIVE_INFINITY;
+    } else {
+      shown = await wizard.enterReading(move.text!, move.unit);
+      const parsed = parseReading(step.quantity, move.text!, move.unit ?? undefined);
+      if (!parsed.ok) throw new Error(parsed.message);
+      value = parsed.value;
+    }
+    const band = findBand(step.bands, value)!.band;
     expect(shown.verdict, `gauge verdict at ${step.id}`).toBe(band.verdict);
     expect(shown.line).toContain(band.label);
     await wizard.saveReading();
@@ -89,12 +109,14 @@ async function play(wizard: WizardPage, move: Move) {
   } else if (step.kind === 'action') {
     const { disabledBeforeLast } = await wizard.tickAllAndConfirm();
     expect(disabledBeforeLast, `Confirm disabled before the last item at ${step.id}`).toBe(true);
+  } else if (step.kind === 'finding') {
+    await wizard.repairDone();
   }
 }
 
-const HEALTHY_TO_CONTROL: Move[] = [
+const NO_SPARK_TO_CONTROL: Move[] = [
   { step: 'line-voltage', text: '120' },
-  { step: 'control-supply', choice: 'low-voltage-only' },
+  { step: 'trial-observe', choice: 'no-spark' },
   { step: 'transformer-secondary', text: '24.5' },
   { step: 'fuse-output', text: '24' },
   { step: 'thermostat-call', choice: 'calling' },
@@ -110,39 +132,47 @@ async function expectFinding(wizard: WizardPage, findingId: string) {
 async function serverView(diagnosisId: string) {
   const view = await tech.get(`/api/diagnoses/${diagnosisId}`);
   expect(view.status).toBe(200);
-  return view.json as { status: string; finding: { id: string } | null; path: { stepId: string; band: string | null }[] };
+  return view.json as {
+    status: string;
+    phase: string;
+    finding: { id: string } | null;
+    path: { stepId: string; band: string | null; text: string | null; overRange: boolean; auto: boolean }[];
+  };
 }
 
-// From the control's thermostat input to the meter in series, with every check passing (the
-// spark gap typed as a fraction with the inch picked).
-const CONTROL_TO_FLAME_SIGNAL: Move[] = [
-  { step: 'control-th-input', text: '24' },
-  { step: 'spark-observe', choice: 'at-gap' },
-  { step: 'lock-out--spark-gap' },
-  { step: 'spark-gap', text: '1/8', unit: 'in' },
-  { step: 'rod-condition', choice: 'good' },
-  { step: 're-energize--valve-voltage' },
-  { step: 'valve-voltage', text: '24' },
-  { step: 'connect-manometer' },
-  { step: 'fuel-type', choice: 'natural-gas' },
-  { step: 'inlet-pressure', text: '7' },
-  { step: 'manifold-pressure', text: '3.5' },
-  { step: 'burners-light', choice: 'light' },
-  { step: 'carry-over', choice: 'carries' },
+// The flame lights, then drops out: polarity and ground, the meter in series, a low signal, a dirty rod.
+const DROPS_TO_DIRTY_ROD: Move[] = [
+  { step: 'line-voltage', text: '120.4' },
+  { step: 'trial-observe', choice: 'lights-drops' },
+  { step: 'neutral-ground', text: '0.3' },
+  { step: 'hot-ground', text: '120' },
   { step: 'lock-out--connect-microammeter' },
   { step: 'connect-microammeter' },
   { step: 're-energize--flame-signal' },
+  { step: 'flame-signal', text: '0.5' },
+  { step: 'carry-over', choice: 'carries' },
+  { step: 'lock-out--rod-inspect' },
+  { step: 'rod-inspect', choice: 'dirty' },
+];
+// The visit after the finding: the repair, the meter back in series, power back, the reading after the repair, the checks.
+const DIRTY_ROD_VISIT: Move[] = [
+  { step: 'f-dirty-flame-rod' },
+  { step: 'reconnect--flame-signal--f-dirty-flame-rod' },
+  { step: 're-energize--recheck--flame-signal--f-dirty-flame-rod' },
+  { step: 'recheck--flame-signal--f-dirty-flame-rod', text: '4.2' },
+  { step: 'verify--f-dirty-flame-rod' },
 ];
 
 describe('the wizard', () => {
-  it('walks to a blown control fuse, resuming after a reload and undoing one answer', async () => {
+  it('walks to a blown control fuse, resuming after a reload and undoing one answer, locked out for the repair', async () => {
     const callId = await newCall();
     const { wizard, diagnosisId } = await startDiagnosis(callId);
     expect(await wizard.title()).toBe(titleOf('line-voltage'));
     await expect(wizard.energyBadge.getAttribute('data-energy')).resolves.toBe('energized');
 
     await play(wizard, { step: 'line-voltage', text: '120' });
-    await play(wizard, { step: 'control-supply', choice: 'low-voltage-only' });
+    await play(wizard, { step: 'trial-observe', choice: 'no-spark' });
+    // How the control is powered comes from the unit record: the next question is the transformer.
     await wizard.waitForTitle(titleOf('transformer-secondary'));
     await wizard.waitUntilSaved();
 
@@ -159,50 +189,92 @@ describe('the wizard', () => {
     await wizard.undoLast();
     await wizard.waitForTitle(titleOf('transformer-secondary'));
     await wizard.waitUntilSaved();
-    expect((await serverView(diagnosisId)).path.map((a) => a.stepId)).toEqual(['line-voltage', 'control-supply']);
+    expect((await serverView(diagnosisId)).path.map((a) => a.stepId)).toEqual(['line-voltage', 'trial-observe', 'control-supply']);
 
     await play(wizard, { step: 'transformer-secondary', text: '24.5' });
     await play(wizard, { step: 'fuse-output', text: '0' });
+    // The fuse is changed with the power locked out: the procedure comes before the finding.
+    await play(wizard, { step: 'lock-out--f-blown-fuse' });
     await expectFinding(wizard, 'f-blown-fuse');
-    await expect(page.getByRole('link', { name: /go to the call/ }).getAttribute('href')).resolves.toBe(`/calls/${callId}`);
+    await expect(wizard.energyBadge.getAttribute('data-energy')).resolves.toBe('locked-out');
 
     const view = await serverView(diagnosisId);
-    expect(view.status).toBe('found');
-    expect(view.finding?.id).toBe('f-blown-fuse');
-    expect(view.path.map((a) => a.stepId)).toEqual(['line-voltage', 'control-supply', 'transformer-secondary', 'fuse-output']);
+    expect(view).toMatchObject({ status: 'found', phase: 'repair', finding: { id: 'f-blown-fuse' } });
+    expect(view.path.map((a) => a.stepId)).toEqual([
+      'line-voltage',
+      'trial-observe',
+      'control-supply',
+      'transformer-secondary',
+      'fuse-output',
+      'lock-out--f-blown-fuse',
+    ]);
   });
 
-  it('walks to an open high limit', async () => {
-    const callId = await newCall();
-    const { wizard, diagnosisId } = await startDiagnosis(callId);
-    for (const move of HEALTHY_TO_CONTROL) await play(wizard, move);
-    await play(wizard, { step: 'control-th-input', text: '0' });
-    await play(wizard, { step: 'high-limit-across', text: '24' });
-    await expectFinding(wizard, 'f-open-high-limit');
-    expect((await serverView(diagnosisId)).finding?.id).toBe('f-open-high-limit');
-  });
-
-  it('walks through lock-out and re-energize procedures to a dirty flame rod', async () => {
-    const callId = await newCall();
-    const { wizard, diagnosisId } = await startDiagnosis(callId);
-    for (const move of HEALTHY_TO_CONTROL) await play(wizard, move);
-    const moves: Move[] = [
-      ...CONTROL_TO_FLAME_SIGNAL,
-      { step: 'flame-signal', text: '0.5' },
-      { step: 'lock-out--rod-inspect' },
-      { step: 'rod-inspect', choice: 'dirty' },
-    ];
-    for (const move of moves) {
-      await play(wizard, move);
-      if (move.step === 'lock-out--spark-gap') {
-        await wizard.waitForTitle(titleOf('spark-gap'));
-        await expect(wizard.energyBadge.getAttribute('data-energy')).resolves.toBe('locked-out');
+  for (const vp of ['tablet-landscape', 'tablet-portrait', 'phone'] as const) {
+    it(`walks the dirty-rod visit from the first step through repair, restore and verify (${vp})`, async () => {
+      await page.setViewportSize(VIEWPORTS[vp]);
+      try {
+        const callId = await newCall();
+        const { wizard, diagnosisId } = await startDiagnosis(callId);
+        for (const move of DROPS_TO_DIRTY_ROD) await play(wizard, move);
+        await expectFinding(wizard, 'f-dirty-flame-rod');
+        for (const move of DIRTY_ROD_VISIT) await play(wizard, move);
+        await page.getByTestId('visit-done').waitFor();
+        await wizard.waitUntilSaved();
+        await expect(wizard.energyBadge.getAttribute('data-energy')).resolves.toBe('energized');
+        await expect(page.getByTestId('energy-badge').first().getAttribute('data-gas')).resolves.toBe('on');
+        const view = await serverView(diagnosisId);
+        expect(view).toMatchObject({ status: 'verified', phase: 'done', finding: { id: 'f-dirty-flame-rod' } });
+        expect(view.path.filter((a) => !a.auto).map((a) => a.stepId)).toEqual(
+          [...DROPS_TO_DIRTY_ROD, ...DIRTY_ROD_VISIT].map((m) => m.step),
+        );
+        // The call page shows the visit, and the call can be closed.
+        await page.goto(`/calls/${callId}`);
+        await page.getByText(/repaired, power and gas restored, checks ticked/).waitFor();
+      } finally {
+        await page.setViewportSize(VIEWPORTS['tablet-landscape']);
       }
+    });
+  }
+
+  it('takes "OL" from the keypad on the rollout switch and walks to the tripped rollout (tablet portrait)', async () => {
+    await page.setViewportSize(VIEWPORTS['tablet-portrait']);
+    try {
+      const callId = await newCall();
+      const { wizard, diagnosisId } = await startDiagnosis(callId);
+      for (const move of [
+        ...NO_SPARK_TO_CONTROL,
+        { step: 'control-th-input', text: '0' },
+        { step: 'high-limit-across', text: '0.2' },
+        { step: 'lock-out--rollout-continuity' },
+        { step: 'rollout-continuity', overRange: true as const },
+        { step: 'gas-off--f-tripped-rollout' },
+      ])
+        await play(wizard, move);
+      await expectFinding(wizard, 'f-tripped-rollout');
+      const rollout = (await serverView(diagnosisId)).path.find((a) => a.stepId === 'rollout-continuity')!;
+      expect(rollout).toMatchObject({ text: 'OL', overRange: true });
+    } finally {
+      await page.setViewportSize(VIEWPORTS['tablet-landscape']);
     }
-    await expectFinding(wizard, 'f-dirty-flame-rod');
-    const view = await serverView(diagnosisId);
-    expect(view.finding?.id).toBe('f-dirty-flame-rod');
-    expect(view.path.map((a) => a.stepId)).toEqual([...HEALTHY_TO_CONTROL, ...moves].map((m) => m.step));
+  });
+
+  it('escalates from a step with a note, for the leads (phone)', async () => {
+    await page.setViewportSize(VIEWPORTS.phone);
+    try {
+      const callId = await newCall();
+      const { wizard, diagnosisId } = await startDiagnosis(callId);
+      await play(wizard, { step: 'line-voltage', text: '120' });
+      await wizard.waitForTitle(titleOf('trial-observe'));
+      await wizard.waitUntilSaved();
+      await wizard.escalate('The burners light only with the door off; none of the choices fits.');
+      expect((await serverView(diagnosisId)).status).toBe('escalated');
+      const lead = await signedIn(DEMO.lead);
+      const listed = (await lead.get('/api/escalations')).json as { diagnosisId: string }[];
+      expect(listed.map((e) => e.diagnosisId)).toContain(diagnosisId);
+    } finally {
+      await page.setViewportSize(VIEWPORTS['tablet-landscape']);
+    }
   });
 
   it('reloads the view when another device answered first (409)', async () => {
@@ -213,7 +285,7 @@ describe('the wizard', () => {
     await play(wizard, { step: 'line-voltage', text: '118' });
     await page.getByTestId('notice').waitFor();
     await expect(page.getByTestId('notice').textContent()).resolves.toMatch(/reloaded/);
-    await wizard.waitForTitle(titleOf('control-supply'));
+    await wizard.waitForTitle(titleOf('trial-observe'));
     expect((await serverView(diagnosisId)).path).toHaveLength(1);
   });
 
@@ -231,11 +303,17 @@ describe('the wizard', () => {
           await answer(
             diagnosisId,
             m.step,
-            step.kind === 'measure' ? { text: m.text, unit: m.unit } : step.kind === 'inspect' ? { choice: m.choice } : { confirmed: true },
+            step.kind === 'measure'
+              ? m.overRange
+                ? { overRange: true }
+                : { text: m.text, unit: m.unit }
+              : step.kind === 'inspect'
+                ? { choice: m.choice }
+                : { confirmed: true },
           );
         }
       };
-      const toFlameSignal: Move[] = [...HEALTHY_TO_CONTROL, ...CONTROL_TO_FLAME_SIGNAL];
+      const toFlameSignal: Move[] = DROPS_TO_DIRTY_ROD.slice(0, 7);
       const callId = await newCall();
       // First diagnosis: a weak signal and an open ground path; the second reads a good signal, so
       // its finding "control not sensing" is contradicted by the open ground path of the first.
@@ -243,19 +321,34 @@ describe('the wizard', () => {
       await walk(first, [
         ...toFlameSignal,
         { step: 'flame-signal', text: '0.5' },
+        { step: 'carry-over', choice: 'carries' },
         { step: 'lock-out--rod-inspect' },
         { step: 'rod-inspect', choice: 'good' },
         { step: 'burner-surface', choice: 'clean' },
+        { step: 'flame-lead-continuity', text: '0.2' },
         { step: 'ground-path', text: '50' },
       ]);
       const second = (await tech.post(`/api/calls/${callId}/diagnoses`, { treeVersionId })).json.id as string;
       await walk(second, [...toFlameSignal, { step: 'flame-signal', text: '4' }]);
       const inspect = (await tech.post(`/api/calls/${callId}/diagnoses`, { treeVersionId })).json.id as string;
-      await walk(inspect, HEALTHY_TO_CONTROL.slice(0, 4));
+      await walk(inspect, NO_SPARK_TO_CONTROL.slice(0, 4));
       const lockout = (await tech.post(`/api/calls/${callId}/diagnoses`, { treeVersionId })).json.id as string;
-      await walk(lockout, [...HEALTHY_TO_CONTROL, { step: 'control-th-input', text: '24' }, { step: 'spark-observe', choice: 'at-gap' }]);
+      await walk(lockout, DROPS_TO_DIRTY_ROD.slice(0, 4));
       const measure = (await tech.post(`/api/calls/${callId}/diagnoses`, { treeVersionId })).json.id as string;
-      await walk(measure, HEALTHY_TO_CONTROL.slice(0, 2));
+      await walk(measure, NO_SPARK_TO_CONTROL.slice(0, 2));
+      const repair = (await tech.post(`/api/calls/${callId}/diagnoses`, { treeVersionId })).json.id as string;
+      await walk(repair, DROPS_TO_DIRTY_ROD);
+      const verify = (await tech.post(`/api/calls/${callId}/diagnoses`, { treeVersionId })).json.id as string;
+      await walk(verify, [...DROPS_TO_DIRTY_ROD, ...DIRTY_ROD_VISIT.slice(0, 4)]);
+      const done = (await tech.post(`/api/calls/${callId}/diagnoses`, { treeVersionId })).json.id as string;
+      await walk(done, [...DROPS_TO_DIRTY_ROD, ...DIRTY_ROD_VISIT]);
+      const ohms = (await tech.post(`/api/calls/${callId}/diagnoses`, { treeVersionId })).json.id as string;
+      await walk(ohms, [
+        ...NO_SPARK_TO_CONTROL,
+        { step: 'control-th-input', text: '0' },
+        { step: 'high-limit-across', text: '0.2' },
+        { step: 'lock-out--rollout-continuity' },
+      ]);
 
       const wizard = new WizardPage(page);
       const shots: [string, string, (() => Promise<void>)?][] = [
@@ -263,6 +356,10 @@ describe('the wizard', () => {
         ['inspect', inspect],
         ['lockout', lockout, async () => void (await page.getByRole('checkbox').first().check())],
         ['finding-contradiction', second],
+        ['repair', repair],
+        ['verify', verify],
+        ['done', done],
+        ['ohms-ol', ohms, async () => void (await wizard.enterOverRange())],
       ];
       for (const [name, id, prepare] of shots) {
         for (const theme of ['light', 'dark'] as const) {

@@ -48,14 +48,15 @@ describe('checkConsistency with the default tree', () => {
   });
 
   it('checks every expectation of a finding', () => {
-    const wiring = finding('f-valve-wiring-resistance');
-    const flagged = checkConsistency(wiring, [
-      { stepId: 'valve-voltage', value: 24.5 },
-      { stepId: 'control-valve-output', value: 3 },
+    const pressure = finding('f-gas-valve-not-opening');
+    const flagged = checkConsistency(pressure, [
+      { stepId: 'inlet-pressure', value: 2 },
+      { stepId: 'manifold-pressure', value: 3.4 },
+      { stepId: 'lp-inlet-pressure', value: 11.8 },
     ]);
     expect(flagged.map((c) => [c.stepId, c.expected])).toEqual([
-      ['valve-voltage', { to: 18 }],
-      ['control-valve-output', { from: 18 }],
+      ['inlet-pressure', { from: 4.5 }],
+      ['manifold-pressure', { to: 0.5 }],
     ]);
     // No line power: the unit supply reads low, so 0 V is consistent and 120 V is not.
     const noPower = finding('f-no-line-power');

@@ -113,7 +113,7 @@ describe('parseReading: accepted forms', () => {
     ['4.2 \u03bcA', 4.2, 'µA'], // Greek small mu
     ['4.2 uA', 4.2, 'µA'],
     ['4.2', 4.2, 'µA'],
-    ['0.2 mA', 200, 'mA'],
+    ['0.02 mA', 20, 'mA'], // 1 mA = 1000 µA (SI prefixes, NIST SP 811)
     ['-3', -3, 'µA'],
   ] as const)('DC microamps %s', (text, value, symbol) => {
     const r = parsed('udc', text);
@@ -241,8 +241,10 @@ describe('parseReading: refusals say why', () => {
     ['vac', '-5', /0 to 600 VAC/],
     ['vdc', '-2', /-1 to 600 VDC/],
     ['vdc', '601', /-1 to 600 VDC/],
-    ['udc', '-51', /-50 to 500 µA/],
-    ['udc', '0.6 mA', /-50 to 500 µA/],
+    // Flame signals are a few µA (TRADE.md, common practice, no source): tens at most.
+    ['udc', '-51', /-50 to 50 µA/],
+    ['udc', '0.6 mA', /-50 to 50 µA/],
+    ['udc', '51', /-50 to 50 µA/],
     ['ohm', '-1', /0 to 100000000 Ω/],
     ['ohm', '200 MΩ', /0 to 100000000 Ω/],
     ['length', '121', /0 to 120 in/],

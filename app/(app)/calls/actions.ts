@@ -2,15 +2,7 @@
 
 import { actionOf } from '@/lib/server/operation';
 import { signOffDiagnosisOp, startDiagnosisOp } from '@/lib/server/operations/diagnoses';
-import {
-  assignCallOp,
-  closeCallOp,
-  createCallOp,
-  createSiteOp,
-  createUnitOp,
-  recordRepairOp,
-  reopenCallOp,
-} from '@/lib/server/operations/field';
+import { assignCallOp, closeCallOp, createCallOp, createSiteOp, createUnitOp, reopenCallOp } from '@/lib/server/operations/field';
 
 export const createSiteAction = actionOf(createSiteOp);
 
@@ -19,8 +11,6 @@ export const createUnitAction = actionOf(createUnitOp, { revalidate: () => ['/un
 export const createCallAction = actionOf(createCallOp, { revalidate: () => ['/calls'] });
 
 export const startDiagnosisAction = actionOf(startDiagnosisOp, { revalidate: (input) => [`/calls/${input.callId}`] });
-
-export const saveRepairAction = actionOf(recordRepairOp, { revalidate: (input) => [`/calls/${input.callId}`] });
 
 export const signOffAction = actionOf(signOffDiagnosisOp, { revalidate: (_, view) => [`/calls/${view.callId}`] });
 

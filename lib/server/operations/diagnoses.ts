@@ -1,18 +1,20 @@
 import 'server-only';
 import { z } from 'zod';
+import { listEscalations } from '@/db/diagnoses';
 import { getTreeVersion, listTrees } from '@/db/trees';
-import { answerDiagnosis, getDiagnosisView, signOffFinding, startDiagnosis, undoLastAnswer } from '@/lib/server/diagnoses';
+import { answerDiagnosis, escalate, getDiagnosisView, signOffFinding, startDiagnosis, undoLastAnswer } from '@/lib/server/diagnoses';
 import { defineOperation } from '@/lib/server/operation';
 import { noInput, recordId } from '@/lib/server/operations/shared';
 import { toApiStep } from '@/lib/server/steps';
 import {
   answerResultSchema,
   diagnosisViewSchema,
+  escalationListSchema,
   startedDiagnosisSchema,
   treeListSchema,
   treeVersionOutSchema,
 } from '@/lib/validations/api';
-import { answerSchema, startDiagnosisSchema } from '@/lib/validations/field';
+import { answerSchema, escalateSchema, signOffSchema, startDiagnosisSchema } from '@/lib/validations/field';
 
 // POST /api/calls/{id}/diagnoses · startDiagnosisAction
 export const startDiagnosisOp = defineOperation({
@@ -53,9 +55,25 @@ export const undoAnswerOp = defineOperation({
 // POST /api/diagnoses/{id}/sign-off · signOffAction
 export const signOffDiagnosisOp = defineOperation({
   name: 'diagnoses.signOff',
-  input: z.object({ diagnosisId: recordId }),
+  input: signOffSchema.extend({ diagnosisId: recordId }),
   output: diagnosisViewSchema,
-  handler: async ({ scope, input }) => signOffFinding({ scope, id: input.diagnosisId }),
+  handler: async ({ scope, input }) => signOffFinding({ scope, id: input.diagnosisId, comment: input.comment }),
+});
+
+// POST /api/diagnoses/{id}/escalate · escalateAction
+export const escalateDiagnosisOp = defineOperation({
+  name: 'diagnoses.escalate',
+  input: escalateSchema.extend({ diagnosisId: recordId }),
+  output: diagnosisViewSchema,
+  handler: async ({ scope, input }) => escalate({ scope, id: input.diagnosisId, note: input.note }),
+});
+
+// GET /api/escalations
+export const listEscalationsOp = defineOperation({
+  name: 'diagnoses.escalations',
+  input: noInput,
+  output: escalationListSchema,
+  handler: async ({ scope }) => listEscalations({ companyId: scope.companyId }),
 });
 
 // GET /api/trees

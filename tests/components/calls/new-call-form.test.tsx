@@ -24,6 +24,7 @@ const SITES: PickerSite[] = [
         ignition: 'two-rod',
         fuel: 'natural-gas',
         controlSupply: '24v',
+        draft: 'induced',
         transformerVa: 40,
         installYear: 2011,
       },
@@ -163,6 +164,7 @@ describe('NewCallForm', () => {
       ignition: 'single-rod',
       fuel: 'lp',
       controlSupply: 'line',
+      draft: 'natural',
       transformerVa: 75,
       installYear: 2018,
     };
@@ -190,6 +192,7 @@ describe('NewCallForm', () => {
     await user.click(unitGroup.getByRole('radio', { name: /DSI, single-rod/ }));
     await user.click(unitGroup.getByRole('radio', { name: /^LP/ }));
     await user.click(unitGroup.getByRole('radio', { name: /Line-powered control/ }));
+    await user.click(unitGroup.getByRole('radio', { name: /Natural draft/ }));
     await user.clear(unitGroup.getByLabelText('Transformer rating (VA)'));
     await user.type(unitGroup.getByLabelText('Transformer rating (VA)'), '75');
     await user.type(unitGroup.getByLabelText('Install year'), '2018');
@@ -201,6 +204,7 @@ describe('NewCallForm', () => {
       ignition: 'single-rod',
       fuel: 'lp',
       controlSupply: 'line',
+      draft: 'natural',
       transformerVa: 75,
       installYear: 2018,
     });

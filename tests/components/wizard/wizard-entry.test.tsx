@@ -69,6 +69,8 @@ const lineAnswer: ApiAnswer = {
   choice: null,
   choiceLabel: null,
   confirmed: null,
+  overRange: false,
+  auto: false,
   at: '2026-01-01T00:00:00.000Z',
 };
 
@@ -82,6 +84,9 @@ function view(over: Partial<DiagnosisViewOut> = {}): DiagnosisViewOut {
     startedBy: { id: 'u-1', name: 'Sam', role: 'technician' },
     signedOff: null,
     energy: 'energized',
+    gas: 'on',
+    phase: 'walk',
+    escalation: null,
     path: [lineAnswer],
     current: null,
     finding: null,
@@ -94,6 +99,7 @@ function view(over: Partial<DiagnosisViewOut> = {}): DiagnosisViewOut {
 const actions: WizardActions = {
   submitAnswer: vi.fn(async () => ({ ok: false as const, code: 'internal' as const, message: 'not in this test' })),
   undoAnswer: vi.fn(async () => ({ ok: false as const, code: 'internal' as const, message: 'not in this test' })),
+  escalate: vi.fn(async () => ({ ok: false as const, code: 'internal' as const, message: 'not in this test' })),
 };
 
 function renderWizard(v: DiagnosisViewOut, viewerRole: 'apprentice' | 'technician' = 'technician') {

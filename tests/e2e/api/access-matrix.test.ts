@@ -118,12 +118,21 @@ const ROUTES: Record<OperationName, RouteCase> = {
   },
   'diagnoses.undo': { method: 'DELETE', path: (r) => `/api/diagnoses/${r.diagnosisId}/answers/last?last=${randomUUID()}`, rows: true },
   'diagnoses.signOff': { method: 'POST', path: (r) => `/api/diagnoses/${r.diagnosisId}/sign-off`, rows: true },
+  // A valid note (a body the schema refuses would answer 400 before the row is looked up): the
+  // first one allowed escalates (200), later ones find it ended (409). It runs after the answers.
+  'diagnoses.escalate': {
+    method: 'POST',
+    path: (r) => `/api/diagnoses/${r.diagnosisId}/escalate`,
+    body: () => ({ note: 'Escalated by the matrix' }),
+    rows: true,
+  },
+  'diagnoses.escalations': { method: 'GET', path: () => '/api/escalations', rows: false },
   'trees.list': { method: 'GET', path: () => '/api/trees', rows: false },
   'treeVersions.get': { method: 'GET', path: (r) => `/api/tree-versions/${r.treeVersionId}`, rows: true },
 };
 
 // The calls and diagnoses a reach covers: the whole company, one's own, or (supervised) one's own and apprentices'.
-const CALL_ROWS = /^(calls\.(get|recordRepair|close|reopen|assign)|diagnoses\.(start|get|answer|undo|signOff))$/;
+const CALL_ROWS = /^(calls\.(get|recordRepair|close|reopen|assign)|diagnoses\.(start|get|answer|undo|signOff|escalate))$/;
 
 interface Identity {
   label: string;

@@ -16,6 +16,7 @@ const TABLES = ['companies', 'users', 'sites', 'units', 'service_calls', 'diagno
 let db: Knex;
 let admin: ApiClient;
 let tech: ApiClient;
+let companyBefore: Record<string, unknown> | null = null;
 const ids: Record<string, string> = {};
 
 async function checksum(): Promise<string> {
@@ -35,6 +36,7 @@ beforeAll(async () => {
   db = knexFactory({ client: 'pg', connection: process.env.DATABASE_URL, pool: { min: 0, max: 2 } });
   admin = await signedIn(DEMO.admin);
   tech = await signedIn(DEMO.technician);
+  companyBefore = (await admin.get('/api/company')).json;
   const version = (await tech.get('/api/trees')).json.find((t: any) => t.published).published.id;
   const site = await tech.post('/api/sites', { name: 'Hostile site', address: '1 Fuzz Row' });
   const unit = await tech.post('/api/units', {
@@ -60,6 +62,12 @@ beforeAll(async () => {
 });
 
 afterAll(async () => {
+  // A hostile body that happens to be valid changes the company (a random name): put it back for
+  // the tests that read the demo company's name.
+  if (companyBefore) {
+    const { id: _id, ...settings } = companyBefore;
+    await admin.patch('/api/company', settings);
+  }
   await db.destroy();
 });
 
@@ -198,6 +206,13 @@ const TARGETS: Record<string, Target> = {
     path: () => `/api/calls/${ids.call}/assign`,
     client: () => admin,
     valid: () => ({ technicianId: ids.user }),
+  },
+  // After the answers: an escalation that gets through ends the diagnosis (later ones are 409s).
+  'POST /api/diagnoses/{id}/escalate': {
+    method: 'POST',
+    path: () => `/api/diagnoses/${ids.diagnosis}/escalate`,
+    client: () => tech,
+    valid: () => ({ note: 'The meter reads nothing the steps offer' }),
   },
   // Last: a referral that gets through closes the call, and a reopen that gets through opens it again.
   'POST /api/calls/{id}/close (refer)': {

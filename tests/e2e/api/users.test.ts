@@ -324,7 +324,14 @@ describe('/api/company', () => {
         displayUnits: 'metric',
       });
       expect(res.status).toBe(200);
-      expect(res.json).toEqual({ id: before.id, name: 'Kestrel Valley Heating', officeEmail: 'desk@kestrel.test', displayUnits: 'metric' });
+      // The time zone is left out of the change, so it stays as it was.
+      expect(res.json).toEqual({
+        id: before.id,
+        name: 'Kestrel Valley Heating',
+        officeEmail: 'desk@kestrel.test',
+        displayUnits: 'metric',
+        timeZone: before.timeZone,
+      });
       expect((await admin.get('/api/company')).json).toEqual(res.json);
       expect((await otherAdmin.get('/api/company')).json).toEqual(theirsBefore);
     } finally {

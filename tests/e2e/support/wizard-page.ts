@@ -55,6 +55,24 @@ export class WizardPage {
     return { verdict: await this.gaugeVerdict.getAttribute('data-verdict'), line: ((await this.gaugeVerdict.textContent()) ?? '').trim() };
   }
 
+  /** An ohms reading over range, with the keypad's OL key. */
+  async enterOverRange(): Promise<{ verdict: string | null; line: string }> {
+    await this.page.getByRole('group', { name: 'Keypad' }).getByRole('button', { name: 'OL, open circuit (over range)' }).click();
+    await this.gaugeVerdict.waitFor();
+    return { verdict: await this.gaugeVerdict.getAttribute('data-verdict'), line: ((await this.gaugeVerdict.textContent()) ?? '').trim() };
+  }
+
+  async repairDone(): Promise<void> {
+    await this.page.getByTestId('repair-done').click();
+  }
+
+  async escalate(note: string): Promise<void> {
+    await this.page.getByRole('button', { name: /None of these fits/ }).click();
+    await this.page.getByLabel(/What you saw, or why the reading cannot be taken/).fill(note);
+    await this.page.getByRole('button', { name: 'Send to the leads' }).click();
+    await this.page.getByTestId('escalated').waitFor();
+  }
+
   async saveReading(): Promise<void> {
     await this.page.getByRole('button', { name: 'Save reading' }).click();
   }

@@ -1,5 +1,7 @@
 import { findCycles, outgoingEdges, reachableFrom, successors } from '@/lib/trees/graph';
-import type { Step, TreeGraph } from '@/lib/trees/schema';
+import type { EnergyNeed, Step, TreeGraph } from '@/lib/trees/schema';
+
+const ANY: EnergyNeed = { electric: 'any', gas: 'any' };
 
 const finding = (id: string): Step => ({
   id,
@@ -7,7 +9,8 @@ const finding = (id: string): Step => ({
   title: id,
   instruction: '',
   cautions: [],
-  energy: 'any',
+  energy: ANY,
+  handles: [],
   explanation: 'e',
   remedy: 'r',
   parts: [],
@@ -21,7 +24,8 @@ const action = (id: string, outcome: string): Step => ({
   title: id,
   instruction: '',
   cautions: [],
-  energy: 'any',
+  energy: ANY,
+  handles: [],
   checklist: [],
   outcome,
 });
@@ -31,7 +35,8 @@ const inspect = (id: string, ...outcomes: string[]): Step => ({
   title: id,
   instruction: '',
   cautions: [],
-  energy: 'any',
+  energy: ANY,
+  handles: [],
   choices: outcomes.map((o, i) => ({ value: `c${i}`, label: `c${i}`, outcome: o })),
 });
 
@@ -44,10 +49,33 @@ describe('graph helpers', () => {
     expect(outgoingEdges(action('b', 'x'))).toEqual([{ from: 'b', to: 'x', via: { kind: 'confirm' } }]);
     expect(outgoingEdges(finding('f'))).toEqual([]);
     expect(successors(inspect('a', 'x', 'x'))).toEqual(['x']);
+    // A unit-record branch leads on by its cases.
+    const fact: Step = {
+      id: 'u',
+      kind: 'fact',
+      title: 'u',
+      instruction: '',
+      cautions: [],
+      energy: ANY,
+      handles: [],
+      fact: 'draft',
+      cases: [
+        { value: 'induced', label: 'i', outcome: 'x' },
+        { value: 'natural', label: 'n', outcome: 'y' },
+      ],
+    };
+    expect(outgoingEdges(fact).map((e) => [e.to, e.via])).toEqual([
+      ['x', { kind: 'case', value: 'induced' }],
+      ['y', { kind: 'case', value: 'natural' }],
+    ]);
   });
 
   it('finds the reachable steps and the loops', () => {
-    const g: TreeGraph = { start: 'a', steps: [inspect('a', 'b', 'f'), action('b', 'c'), action('c', 'b'), finding('f'), finding('g')] };
+    const g: TreeGraph = {
+      start: 'a',
+      afterRepair: [],
+      steps: [inspect('a', 'b', 'f'), action('b', 'c'), action('c', 'b'), finding('f'), finding('g')],
+    };
     expect(reachableFrom(g, 'a')).toEqual(new Set(['a', 'b', 'c', 'f']));
     expect(findCycles(g)).toEqual([['b', 'c', 'b']]);
     expect(findCycles({ steps: [inspect('a', 'f', 'g'), finding('f'), finding('g')] })).toEqual([]);

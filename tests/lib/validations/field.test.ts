@@ -84,7 +84,10 @@ describe('unitSchema', () => {
   const unit = { siteId: ID, label: 'Basement furnace', ignition: 'two-rod', fuel: 'natural-gas', controlSupply: '24v', transformerVa: 40 };
 
   it('accepts a unit with the rating as a number or as digits, and no install year', () => {
-    expect(unitSchema.parse(unit)).toEqual({ ...unit, installYear: null });
+    // The draft is optional for clients written before it; induced draft is the default.
+    expect(unitSchema.parse(unit)).toEqual({ ...unit, draft: 'induced', installYear: null });
+    expect(unitSchema.parse({ ...unit, draft: 'natural' })).toMatchObject({ draft: 'natural' });
+    expect(fieldErrors(unitSchema, { ...unit, draft: 'forced' }).fieldErrors.draft).toEqual(['Draft is induced or natural.']);
     expect(unitSchema.parse({ ...unit, transformerVa: '40', installYear: '2011' })).toMatchObject({ transformerVa: 40, installYear: 2011 });
   });
 

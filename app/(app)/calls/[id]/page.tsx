@@ -1,19 +1,11 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
-import {
-  assignCallAction,
-  closeCallAction,
-  reopenCallAction,
-  saveRepairAction,
-  signOffAction,
-  startDiagnosisAction,
-} from '@/app/(app)/calls/actions';
+import { assignCallAction, closeCallAction, reopenCallAction, signOffAction, startDiagnosisAction } from '@/app/(app)/calls/actions';
 import { CallCaution } from '@/components/calls/call-caution';
 import { CallRecord } from '@/components/calls/call-record';
 import {
   CloseCallControls,
   ReassignCallControl,
-  RepairForm,
   ReopenCallControls,
   SignOffButton,
   StartDiagnosisButton,
@@ -32,7 +24,7 @@ import { orNotFound, pageScope } from '@/lib/server/operation';
 export const metadata: Metadata = { title: 'Service call' };
 export const dynamic = 'force-dynamic';
 
-const DIAGNOSIS_ICONS: Record<string, string> = { in_progress: '◐', found: '◆', escalated: '↗' };
+const DIAGNOSIS_ICONS: Record<string, string> = { in_progress: '◐', found: '◆', verified: '✓', escalated: '↗' };
 
 export default async function CallPage({ params }: { params: Promise<{ id: string }> }) {
   const { user, scope } = await pageScope('calls.get');
@@ -45,7 +37,6 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
   const canAssign = may(user.role, 'calls.assign') && !closed;
   const assignees = canAssign ? await listCallAssignees({ scope }) : [];
   const inProgress = diagnoses.find((d) => d.status === 'in_progress');
-  const checks = [...new Set(diagnoses.flatMap((d) => d.finding?.verification ?? []))];
   const startReason = closed
     ? 'This call is closed: open a new call to diagnose again.'
     : !defaultTree
@@ -150,7 +141,12 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
                       {d.startedBy ?? 'Someone'}
                       {d.startedByRole ? ` (${d.startedByRole})` : ''}, started <Time value={d.startedAt} />
                     </p>
-                    {d.startedByRole === 'apprentice' && d.status === 'found' && (
+                    {d.escalation && (
+                      <p className="text-base">
+                        <span className="font-semibold">Note for the leads:</span> “{d.escalation.note}”
+                      </p>
+                    )}
+                    {d.startedByRole === 'apprentice' && (d.status === 'found' || d.status === 'verified') && (
                       <p className="text-sm font-semibold">
                         {d.signedOff ? (
                           <span>
@@ -172,9 +168,9 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
                   <div className="flex flex-wrap gap-2">
                     <Link
                       href={`/calls/${call.id}/diagnoses/${d.id}`}
-                      className={d.status === 'in_progress' && !closed ? 'btn-primary' : 'btn-secondary'}
+                      className={(d.status === 'in_progress' || d.status === 'found') && !closed ? 'btn-primary' : 'btn-secondary'}
                     >
-                      {d.status === 'in_progress' && !closed ? 'Continue' : 'Open'}
+                      {(d.status === 'in_progress' || d.status === 'found') && !closed ? 'Continue' : 'Open'}
                       <span className="sr-only"> diagnosis {i + 1}</span>
                     </Link>
                   </div>
@@ -201,13 +197,42 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
         <h2 id="repair-heading" className="text-xl font-bold">
           Repair and verification
         </h2>
-        <RepairForm
-          callId={call.id}
-          record={{ repairNotes: call.repairNotes, verification: call.verification }}
-          checks={checks}
-          readOnly={closed}
-          saveRepair={saveRepairAction}
-        />
+        {diagnoses.some((d) => d.status === 'verified') ? (
+          <ul className="space-y-3">
+            {diagnoses
+              .filter((d) => d.status === 'verified' && d.finding)
+              .map((d) => (
+                <li key={d.id} className="space-y-1">
+                  <p className="font-semibold">
+                    <span aria-hidden>✓ </span>
+                    {d.finding!.title}: repaired, power and gas restored, checks ticked
+                    {d.finishedAt && (
+                      <>
+                        {' '}
+                        (<Time value={d.finishedAt} />)
+                      </>
+                    )}
+                  </p>
+                  <ul className="list-disc pl-6 text-base">
+                    {d.finding!.verification.map((v) => (
+                      <li key={v}>{v}</li>
+                    ))}
+                  </ul>
+                </li>
+              ))}
+          </ul>
+        ) : (
+          <p className="text-muted">
+            After the finding, the wizard goes on with the repair, restoring power and gas, and the checks; the readings after the repair
+            appear with the others above.
+          </p>
+        )}
+        {call.repairNotes && (
+          <div className="space-y-1">
+            <p className="font-semibold">Repair notes recorded</p>
+            <p className="whitespace-pre-line">{call.repairNotes}</p>
+          </div>
+        )}
       </section>
 
       <section aria-labelledby="finish-heading" className="card space-y-3">

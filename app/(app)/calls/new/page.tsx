@@ -34,6 +34,7 @@ export default async function NewCallPage({ searchParams }: { searchParams: Prom
             ignition: u.ignition,
             fuel: u.fuel,
             controlSupply: u.controlSupply,
+            draft: u.draft,
             transformerVa: u.transformerVa,
             installYear: u.installYear,
           })),

@@ -1,5 +1,5 @@
 import type { Metadata } from 'next';
-import Link from 'next/link';
+import { BackLink } from '@/components/ui/back-link';
 import { notFound } from 'next/navigation';
 import { Wizard } from '@/components/wizard/wizard';
 import { getCall } from '@/db/calls';
@@ -9,7 +9,7 @@ import { getUnit } from '@/db/units';
 import { getDiagnosisView } from '@/lib/server/diagnoses';
 import { orNotFound, pageScope } from '@/lib/server/operation';
 import { diagnosisViewSchema } from '@/lib/validations/api';
-import { submitAnswerAction, undoAnswerAction } from '../actions';
+import { escalateAction, submitAnswerAction, undoAnswerAction } from '../actions';
 
 export const metadata: Metadata = { title: 'Diagnosis' };
 export const dynamic = 'force-dynamic';
@@ -30,12 +30,12 @@ export default async function DiagnosisPage({ params }: { params: Promise<{ id: 
   return (
     <div>
       <nav aria-label="Breadcrumb" className="mb-3 text-base">
-        <Link href={`/calls/${id}`} className="inline-flex min-h-touch items-center underline">
-          ← {call.unitLabel} · {call.siteName}
-        </Link>
+        <BackLink href={`/calls/${id}`}>
+          {call.unitLabel} · {call.siteName}
+        </BackLink>
       </nav>
       <Wizard
-        actions={{ submitAnswer: submitAnswerAction, undoAnswer: undoAnswerAction }}
+        actions={{ submitAnswer: submitAnswerAction, undoAnswer: undoAnswerAction, escalate: escalateAction }}
         diagnosisId={diagnosisId}
         callId={id}
         version={{ id: record.id, version: record.version, graph: record.graph }}
@@ -44,6 +44,7 @@ export default async function DiagnosisPage({ params }: { params: Promise<{ id: 
         displayUnits={company.displayUnits}
         transformerVa={unit?.transformerVa ?? null}
         viewerRole={user.role}
+        unit={unit ? { ignition: unit.ignition, fuel: unit.fuel, controlSupply: unit.controlSupply, draft: unit.draft } : undefined}
       />
     </div>
   );
