@@ -86,6 +86,23 @@ export async function createUnit({ companyId, input }: { companyId: string; inpu
   return getUnit({ companyId, id: row.id }, trx);
 }
 
+/** Corrects the facts of the unit record a tree branches on; the caller has checked the scope. */
+export async function updateUnitFacts(
+  { companyId, id, facts }: { companyId: string; id: string; facts: Partial<Pick<Unit, 'ignition' | 'fuel' | 'controlSupply' | 'draft'>> },
+  trx: Knex = db,
+): Promise<Unit> {
+  await getUnit({ companyId, id }, trx);
+  await trx('units')
+    .where({ id, company_id: companyId })
+    .update({
+      ...(facts.ignition ? { ignition: facts.ignition } : {}),
+      ...(facts.fuel ? { fuel: facts.fuel } : {}),
+      ...(facts.controlSupply ? { control_supply: facts.controlSupply } : {}),
+      ...(facts.draft ? { draft: facts.draft } : {}),
+    });
+  return getUnit({ companyId, id }, trx);
+}
+
 /** Every reading taken on the unit (answers with a value, not undone), oldest first. */
 export async function listUnitReadings(
   { companyId, unitId }: { companyId: string; unitId: string },

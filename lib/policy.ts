@@ -48,6 +48,8 @@ export const POLICY = {
   'units.list': { roles: field },
   'units.create': { roles: field },
   'units.get': { roles: { technician: 'company', lead: 'company', admin: 'company' } },
+  // Correcting the unit record (found wrong at the unit): technicians and up; an apprentice asks one.
+  'units.correct': { roles: { technician: 'company', lead: 'company', admin: 'company' } },
 
   'calls.list': { roles: callWork },
   'calls.create': { roles: callWork },

@@ -9,6 +9,8 @@ export interface UnitCardData {
   ignition: keyof typeof IGNITION_LABELS;
   fuel: keyof typeof FUEL_LABELS;
   controlSupply: keyof typeof SUPPLY_LABELS;
+  /** Optional for records read before units had it. */
+  draft?: 'induced' | 'natural';
   transformerVa: number;
   installYear: number | null;
 }
@@ -21,6 +23,7 @@ export function UnitCard({ unit, linkToUnit, heading = 'Unit' }: { unit: UnitCar
     ['Ignition', IGNITION_LABELS[unit.ignition]],
     ['Fuel', FUEL_LABELS[unit.fuel]],
     ['Control supply', SUPPLY_LABELS[unit.controlSupply]],
+    ['Draft', unit.draft === 'natural' ? 'Natural draft' : 'Induced draft (inducer, pressure switch)'],
     [
       'Transformer',
       <span key="va" className="font-mono">

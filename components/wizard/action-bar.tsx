@@ -4,7 +4,7 @@ import { useEffect, useRef, type ReactNode } from 'react';
 
 /**
  * The step's one primary action, fixed to the bottom of the screen within thumb reach whatever the
- * length of the step. It comes right after the entry in the tab order; lg:left-64 keeps it clear of
+ * length of the step. It comes right after the entry in the tab order; xl:left-64 keeps it clear of
  * the side navigation. Its height (it grows when the hint wraps) is published as `--action-bar-h`
  * and as the page's bottom scroll padding, so the wizard's bottom padding and anything scrolled or
  * focused into view (a keypad key, the gauge) stay above it.
@@ -33,7 +33,7 @@ export function ActionBar({ children, hint }: { children: ReactNode; hint?: Reac
     <div
       ref={ref}
       data-testid="action-bar"
-      className="no-print fixed inset-x-0 bottom-0 z-30 border-t border-line bg-raised/95 px-4 py-3 backdrop-blur sm:px-6 lg:left-64 lg:px-10"
+      className="no-print fixed inset-x-0 bottom-0 z-30 border-t border-line bg-raised/95 px-4 py-3 backdrop-blur sm:px-6 xl:left-64 xl:px-10"
     >
       <div className="mx-auto flex max-w-3xl flex-wrap items-center justify-end gap-3">
         {hint && <p className="mr-auto text-base text-muted">{hint}</p>}

@@ -92,10 +92,12 @@ export function FindingScreen({
                 <li key={i} className="rounded-lg bg-raised px-3 py-2">
                   <p className="font-semibold">{step?.title ?? c.stepId}</p>
                   <p>
-                    Read <span className="font-mono font-semibold">{shown}</span>; this finding expects{' '}
+                    Read <span className="font-mono font-semibold">{shown}</span>; {done ? 'a good repair reads' : 'this finding expects'}{' '}
                     <span className="font-mono">{expectedText(version, c)}</span>.
                   </p>
-                  <p className="text-base text-muted">The finding assumes: {c.reason.charAt(0).toLowerCase() + c.reason.slice(1)}.</p>
+                  <p className="text-base text-muted">
+                    {done ? `${c.reason}.` : `The finding assumes: ${c.reason.charAt(0).toLowerCase() + c.reason.slice(1)}.`}
+                  </p>
                 </li>
               );
             })}

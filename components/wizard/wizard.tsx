@@ -90,6 +90,8 @@ export interface WizardProps {
   viewerRole?: Role | null;
   /** The unit record's facts, for the branches they answer while answers wait to be saved. */
   unit?: UnitFacts;
+  /** Where the unit record can be corrected, for those who may (technicians and up). */
+  correctUnitHref?: string | null;
 }
 
 const queueKey = (id: string) => `pg-wizard-queue:${id}`;
@@ -124,7 +126,18 @@ export function answerPayload(a: PendingAnswer) {
   };
 }
 
-export function Wizard({ actions, diagnosisId, callId, version, initialView, displayUnits, transformerVa, viewerRole, unit }: WizardProps) {
+export function Wizard({
+  actions,
+  diagnosisId,
+  callId,
+  version,
+  initialView,
+  displayUnits,
+  transformerVa,
+  viewerRole,
+  unit,
+  correctUnitHref,
+}: WizardProps) {
   // The server's view as last seen: the page's, then what an undo or a reload answered.
   const [view, setView] = useState(initialView);
 
@@ -202,6 +215,14 @@ export function Wizard({ actions, diagnosisId, callId, version, initialView, dis
   const footer = (
     <div className="space-y-4">
       <PathSoFar items={items} />
+      {correctUnitHref && items.some((i) => i.kind === 'fact') && (
+        <p className="text-base text-muted">
+          Some answers came from the unit record.{' '}
+          <a href={correctUnitHref} className="inline-flex min-h-touch items-center font-semibold text-ink underline underline-offset-4">
+            Wrong? Correct the unit record
+          </a>
+        </p>
+      )}
       {canEscalate && (
         <EscalateStep
           disabled={ctx.pending.length > 0}

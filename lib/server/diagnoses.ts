@@ -320,7 +320,7 @@ async function contradictionsFor(
       stepId: a.stepId,
       value: a.value ?? Number.POSITIVE_INFINITY,
       expected: { ...(good?.from !== undefined ? { from: good.from } : {}), ...(good?.to !== undefined ? { to: good.to } : {}) },
-      reason: `The repair was ticked as verified, but "${step?.title ?? a.stepId}" read ${a.text ?? a.value} (${a.bandLabel ?? 'outside the good band'}).`,
+      reason: `The checks were ticked as holding, but this reading after the repair is ${(a.bandLabel ?? 'outside the good band').toLowerCase()}`,
       takenAt: a.createdAt.toISOString(),
     });
   }
@@ -525,6 +525,10 @@ export async function answerDiagnosis({ scope, id, input }: { scope: Scope; id: 
       trx,
     );
     await insertAutos({ companyId: scope.companyId, diagnosisId: id, records: autos }, trx);
+    // A verified repair makes the call repaired: it can be closed.
+    if (status === 'verified') {
+      await setCallStatus({ companyId: scope.companyId, id: call.id, status: 'repaired', from: ['open', 'diagnosing'] }, trx);
+    }
     await saveDiagnosisState(
       {
         companyId: scope.companyId,
@@ -568,6 +572,10 @@ export async function undoLastAnswer({ scope, id, last }: { scope: Scope; id: st
       if (!(await markAnswerUndone({ id: a.id }, trx))) throw new AppError('conflict', 'That answer was already undone.');
     }
     const after = walkStateOf(replayOrFail(version, answers.slice(0, cut - 1)));
+    // Undoing the last check of a verified visit takes the call back to diagnosing.
+    if (diagnosis.status === 'verified' && statusOf(version, after.stateId) !== 'verified') {
+      await setCallStatus({ companyId: scope.companyId, id: call.id, status: 'diagnosing', from: ['repaired'] }, trx);
+    }
     await saveDiagnosisState(
       {
         companyId: scope.companyId,

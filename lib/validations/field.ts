@@ -108,6 +108,22 @@ export const answerSchema = z.strictObject(
 );
 export type AnswerInput = z.infer<typeof answerSchema>;
 
+/**
+ * Correcting what the unit record says of the facts a tree branches on, when the technician finds
+ * it wrong at the unit. At least one fact; each as in `unitSchema`.
+ */
+export const unitFactsShape = {
+  ignition: z.enum(['two-rod', 'single-rod'], { error: 'Ignition is two-rod or single-rod.' }).optional(),
+  fuel: z.enum(['natural-gas', 'lp'], { error: 'Fuel is natural-gas or lp.' }).optional(),
+  controlSupply: z.enum(['24v', 'line'], { error: 'Control supply is 24v or line.' }).optional(),
+  draft: z.enum(['induced', 'natural'], { error: 'Draft is induced or natural.' }).optional(),
+};
+const someFact = (f: Record<string, unknown>) => ['ignition', 'fuel', 'controlSupply', 'draft'].some((k) => f[k] !== undefined);
+export const unitFactsSchema = z
+  .strictObject(unitFactsShape, { error: objectError('the unit record') })
+  .refine(someFact, { message: 'Say which fact of the unit record to correct.' });
+export type UnitFactsInput = z.infer<typeof unitFactsSchema>;
+
 /** "None of these fits" / "I can't take this reading": the diagnosis goes to the leads with this note. */
 export const escalateSchema = z.strictObject(
   {

@@ -1,7 +1,7 @@
 import 'server-only';
 import { z } from 'zod';
 import { createSite, listSites } from '@/db/sites';
-import { createUnit, listUnits } from '@/db/units';
+import { createUnit, listUnits, updateUnitFacts } from '@/db/units';
 import {
   findCalls,
   finishCall,
@@ -23,6 +23,7 @@ import {
   reopenCallSchema,
   repairSchema,
   siteSchema,
+  unitFactsShape,
   unitSchema,
 } from '@/lib/validations/field';
 
@@ -56,6 +57,22 @@ export const createUnitOp = defineOperation({
   input: unitSchema,
   output: unitOutSchema,
   handler: async ({ scope, input }) => createUnit({ companyId: scope.companyId, input }),
+});
+
+// PATCH /api/units/{id} · correctUnitAction: what the unit record says of its ignition, fuel,
+// control supply or draft, corrected at the unit. A diagnosis keeps the branches it already took.
+export const correctUnitOp = defineOperation({
+  name: 'units.correct',
+  input: z
+    .strictObject({ ...unitFactsShape, id: recordId }, { error: 'Send the corrected facts of the unit record as a JSON object.' })
+    .refine((f) => Object.keys(unitFactsShape).some((k) => f[k as keyof typeof unitFactsShape] !== undefined), {
+      message: 'Say which fact of the unit record to correct.',
+    }),
+  output: unitOutSchema,
+  handler: async ({ scope, input }) => {
+    const { id, ...facts } = input;
+    return updateUnitFacts({ companyId: scope.companyId, id, facts });
+  },
 });
 
 // GET /api/units/{id}

@@ -241,6 +241,8 @@ describe('diagnoses', () => {
     expect(rest.last.diagnosis).toMatchObject({ status: 'verified', phase: 'done', energy: 'energized', gas: 'on', contradictions: [] });
     view = await tech.get(`/api/diagnoses/${d.id}`);
     expect(view.json).toMatchObject({ status: 'verified', phase: 'done', current: null });
+    // The verified repair makes the call repaired, ready to close.
+    expect((await tech.get(`/api/calls/${callId}`)).json.status).toBe('repaired');
     // The reading after the repair is a reading like any other: it reaches the unit history.
     const history = await tech.get(`/api/units/${unitId}`);
     expect(history.json.readings.map((r: any) => r.value)).toContain(4.1);
@@ -307,6 +309,48 @@ describe('diagnoses', () => {
     expect(reversed.status).toBe(400);
     expect(reversed.json.error.message).toMatch(/leads are reversed/);
     expect((await tech.get(`/api/diagnoses/${d2.id}`)).json.current.id).toBe('flame-signal');
+  });
+
+  it('takes the unit record corrected at the unit: branches already taken stay, branches still ahead follow it', async () => {
+    const site = await tech.post('/api/sites', { name: 'Correction site', address: '2 Record Row' });
+    const made = await tech.post('/api/units', {
+      siteId: site.json.id,
+      label: 'Recorded as two-rod',
+      ignition: 'two-rod',
+      fuel: 'natural-gas',
+      controlSupply: '24v',
+      transformerVa: 40,
+    });
+    expect(made.json.draft).toBe('induced');
+    const call = (await tech.post('/api/calls', { unitId: made.json.id, complaint: 'Drops out' })).json.id;
+    const first = (await tech.post(`/api/calls/${call}/diagnoses`, { treeVersionId: versionId })).json;
+    const toIgnition = [
+      { stepId: 'line-voltage', text: '120' },
+      { stepId: 'trial-observe', choice: 'lights-drops' },
+      { stepId: 'neutral-ground', text: '0.2' },
+    ];
+    for (const a of toIgnition) expect((await answer(tech, first.id, a)).status).toBe(200);
+
+    // At the unit it turns out to be a single-rod unit: the record is corrected.
+    expect((await appr.call('PATCH', `/api/units/${made.json.id}`, { ignition: 'single-rod' })).status).toBe(403);
+    for (const bad of [{}, { ignition: 'hot-surface' }, { label: 'x' }]) {
+      const res = await tech.call('PATCH', `/api/units/${made.json.id}`, bad);
+      expect(res.status, JSON.stringify(bad)).toBe(400);
+      expect(res.json.error.message).toBeTruthy();
+    }
+    const fixed = await tech.call('PATCH', `/api/units/${made.json.id}`, { ignition: 'single-rod', draft: 'natural' });
+    expect(fixed.status, fixed.text).toBe(200);
+    expect(fixed.json).toMatchObject({ ignition: 'single-rod', draft: 'natural', fuel: 'natural-gas' });
+    expect((await other.call('PATCH', `/api/units/${made.json.id}`, { ignition: 'two-rod' })).status).toBe(404);
+
+    // The started diagnosis reaches the ignition branch after the correction: it follows the record as it now is,
+    // so a single-rod unit never gets the meter in series.
+    const hot = await answer(tech, first.id, { stepId: 'hot-ground', text: '120' });
+    expect(hot.json.auto.map((a: any) => [a.stepId, a.choice])).toEqual([['ignition', 'single-rod']]);
+    expect(hot.json.next.id).toBe('control-flame-test');
+    // A new diagnosis from the start takes the corrected facts too.
+    const second = (await tech.post(`/api/calls/${call}/diagnoses`, { treeVersionId: versionId })).json;
+    expect(second.step.id).toBe('line-voltage');
   });
 
   it('escalates with a note, for the leads; the diagnosis then takes no answer', async () => {

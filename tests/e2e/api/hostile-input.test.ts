@@ -189,6 +189,12 @@ const TARGETS: Record<string, Target> = {
     client: () => tech,
     valid: () => ({ treeVersionId: ids.version }),
   },
+  'PATCH /api/units/{id}': {
+    method: 'PATCH',
+    path: () => `/api/units/${ids.unit}`,
+    client: () => tech,
+    valid: () => ({ ignition: 'two-rod', fuel: 'natural-gas', controlSupply: '24v', draft: 'induced' }),
+  },
   'POST /api/diagnoses/{id}/answers': {
     method: 'POST',
     path: () => `/api/diagnoses/${ids.diagnosis}/answers`,

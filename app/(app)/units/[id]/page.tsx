@@ -6,6 +6,9 @@ import { ReadingsTable } from '@/components/calls/readings-table';
 import { UnitCard } from '@/components/calls/unit-card';
 import { BackLink } from '@/components/ui/back-link';
 import { FlameSignalChart } from '@/components/units/flame-signal-chart';
+import { UnitFactsForm } from '@/components/units/unit-facts-form';
+import { may } from '@/lib/policy';
+import { correctUnitAction } from '../actions';
 import { getUnitPage } from '@/lib/server/calls';
 import { companyTimeZone } from '@/lib/server/company';
 import { orNotFound, pageScope } from '@/lib/server/operation';
@@ -14,7 +17,7 @@ export const metadata: Metadata = { title: 'Unit' };
 export const dynamic = 'force-dynamic';
 
 export default async function UnitPage({ params }: { params: Promise<{ id: string }> }) {
-  const { scope } = await pageScope('units.get');
+  const { scope, user } = await pageScope('units.get');
   const { id } = await params;
   const page = await orNotFound(getUnitPage({ scope, id }));
   const { unit, site, visits, readings, flame } = page;
@@ -37,6 +40,13 @@ export default async function UnitPage({ params }: { params: Promise<{ id: strin
       </div>
 
       <UnitCard unit={unit} linkToUnit={false} heading="Attributes" />
+      {may(user.role, 'units.correct') && (
+        <UnitFactsForm
+          unitId={unit.id}
+          facts={{ ignition: unit.ignition, fuel: unit.fuel, controlSupply: unit.controlSupply, draft: unit.draft }}
+          correct={correctUnitAction}
+        />
+      )}
 
       <section aria-labelledby="flame-heading" className="card space-y-3">
         <h2 id="flame-heading" className="text-xl font-bold">

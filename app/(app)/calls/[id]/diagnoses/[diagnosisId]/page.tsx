@@ -7,6 +7,7 @@ import { getCompany } from '@/db/companies';
 import { getTreeVersion } from '@/db/trees';
 import { getUnit } from '@/db/units';
 import { getDiagnosisView } from '@/lib/server/diagnoses';
+import { may } from '@/lib/policy';
 import { orNotFound, pageScope } from '@/lib/server/operation';
 import { diagnosisViewSchema } from '@/lib/validations/api';
 import { escalateAction, submitAnswerAction, undoAnswerAction } from '../actions';
@@ -45,6 +46,7 @@ export default async function DiagnosisPage({ params }: { params: Promise<{ id: 
         transformerVa={unit?.transformerVa ?? null}
         viewerRole={user.role}
         unit={unit ? { ignition: unit.ignition, fuel: unit.fuel, controlSupply: unit.controlSupply, draft: unit.draft } : undefined}
+        correctUnitHref={unit && may(user.role, 'units.correct') ? `/units/${unit.id}#record` : null}
       />
     </div>
   );
