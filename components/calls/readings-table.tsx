@@ -6,7 +6,8 @@ export interface ReadingRow {
   stepTitle: string;
   points: [string, string] | null;
   text: string | null;
-  value: number;
+  /** null for an over-range reading ("OL"). */
+  value: number | null;
   unit: string | null;
   band: string | null;
   verdict: string | null;
@@ -32,6 +33,7 @@ export function Verdict({ verdict, band }: { verdict: string | null; band: strin
 
 /** The value as typed, and the stored canonical value when the technician typed another unit. */
 function Value({ r }: { r: ReadingRow }) {
+  if (r.value === null) return <span className="font-mono">OL (open circuit)</span>;
   const typed = r.text ?? String(r.value);
   const hasUnit = /[a-zµΩ"]/i.test(typed);
   return (

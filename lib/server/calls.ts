@@ -245,7 +245,8 @@ export interface CallReading {
   points: [string, string] | null;
   quantity: string | null;
   text: string | null;
-  value: number;
+  /** null for an over-range reading ("OL"). */
+  value: number | null;
   unit: string | null;
   band: string | null;
   verdict: string | null;
@@ -287,8 +288,9 @@ export async function getCallPage({ scope, id }: { scope: Scope; id: string }) {
     };
   });
 
+  // Readings with a value, and resistances over the meter's range ("OL", stored without one).
   const readings: CallReading[] = answers
-    .filter((a) => a.value !== null)
+    .filter((a) => a.value !== null || a.overRange)
     .map((a) => {
       const step = getStep({ id: '', version: 0, graph: versionOfDiagnosis.get(a.diagnosisId)!.graph }, a.stepId);
       return {
@@ -299,7 +301,7 @@ export async function getCallPage({ scope, id }: { scope: Scope; id: string }) {
         points: step?.kind === 'measure' ? step.points : null,
         quantity: a.quantity,
         text: a.text,
-        value: a.value as number,
+        value: a.value,
         unit: a.unit,
         band: a.bandLabel,
         verdict: a.verdict,

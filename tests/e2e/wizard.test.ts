@@ -254,6 +254,9 @@ describe('the wizard', () => {
       await expectFinding(wizard, 'f-tripped-rollout');
       const rollout = (await serverView(diagnosisId)).path.find((a) => a.stepId === 'rollout-continuity')!;
       expect(rollout).toMatchObject({ text: 'OL', overRange: true });
+      // The call's readings list it too, as an open circuit.
+      await page.goto(`/calls/${callId}`);
+      await page.getByText('OL (open circuit)').first().waitFor();
     } finally {
       await page.setViewportSize(VIEWPORTS['tablet-landscape']);
     }

@@ -17,6 +17,7 @@ let db: Knex;
 let admin: ApiClient;
 let tech: ApiClient;
 let companyBefore: Record<string, unknown> | null = null;
+let technicianBefore: { id: string; name: string; role: string; active: boolean } | null = null;
 const ids: Record<string, string> = {};
 
 async function checksum(): Promise<string> {
@@ -49,7 +50,8 @@ beforeAll(async () => {
   });
   const call = await tech.post('/api/calls', { unitId: unit.json.id, complaint: 'No heat (hostile)' });
   const diagnosis = await tech.post(`/api/calls/${call.json.id}/diagnoses`, { treeVersionId: version });
-  const technician = await db('users').where({ email: DEMO.technician }).first('id');
+  const technician = await db('users').where({ email: DEMO.technician }).first('id', 'name', 'role', 'active');
+  technicianBefore = technician;
   Object.assign(ids, {
     version,
     site: site.json.id,
@@ -67,6 +69,11 @@ afterAll(async () => {
   if (companyBefore) {
     const { id: _id, ...settings } = companyBefore;
     await admin.patch('/api/company', settings);
+  }
+  // Likewise the demo technician's name, role and state (what the other tests greet and sign in as).
+  if (technicianBefore) {
+    const { id, ...row } = technicianBefore;
+    await db('users').where({ id }).update(row);
   }
   await db.destroy();
 });
