@@ -129,7 +129,7 @@ function valueInBand({ from, to }) {
  * picked by `random`. Four times in five the pick is among the options that lead on to another step
  * rather than straight to a finding (when there are such), so that walks go deep as well as short.
  */
-function answerFor(step, random, findingIds) {
+function answerFor(step, random, findingIds, readings = {}) {
   const clientId = randomUUID();
   const pick = (options) => {
     const onward = options.filter((o) => !findingIds.has(o.outcome));
@@ -138,7 +138,9 @@ function answerFor(step, random, findingIds) {
   };
   if (step.kind === 'measure') {
     // A band that asks for the reading again (leads reversed) is not an answer.
-    const value = valueInBand(pick(step.bands.filter((b) => b.outcome !== undefined)));
+    // Bands relative to an earlier reading of the walk are offsets from it (or from the fallback).
+    const base = step.reference ? (readings[step.reference.step] ?? step.reference.fallback) : 0;
+    const value = base + valueInBand(pick(step.bands.filter((b) => b.outcome !== undefined)));
     return { clientId, stepId: step.id, text: String(Number(value.toFixed(4))), unit: step.unit };
   }
   if (step.kind === 'inspect') return { clientId, stepId: step.id, choice: pick(step.choices).value };
@@ -227,13 +229,15 @@ async function createAppClient(base, tree, n) {
     },
     /** One save, timed; the step it names is the next one answered. */
     async save() {
-      const body = answerFor(client.current.step, random, tree.findingIds);
+      const readings = client.current.readings ?? {};
+      const body = answerFor(client.current.step, random, tree.findingIds, readings);
       const started = performance.now();
       const res = await request(base, 'POST', `/api/diagnoses/${client.current.id}/answers`, body, cookie);
       const ms = performance.now() - started;
       const ok = ok2xx(res.status);
       let finished = false;
-      if (ok && res.json?.next && !res.json.finding) client.current = { id: client.current.id, step: res.json.next };
+      if (ok && typeof res.json?.answer?.value === 'number') readings[body.stepId] = res.json.answer.value;
+      if (ok && res.json?.next && !res.json.finding) client.current = { id: client.current.id, step: res.json.next, readings };
       else {
         // A finding ends the walk (the repair and its checks are not timed); after a failed save the
         // diagnosis is in a state this client does not know, so it is left too.
