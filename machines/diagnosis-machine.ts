@@ -14,7 +14,7 @@
 // Nothing here is final but `done`, so the actor stays active at a finding and undo still works.
 import { assign, createActor, setup, transition, type Actor, type SnapshotFrom, type StateValue } from 'xstate';
 import { findBand, shiftedBands } from '@/lib/bands';
-import { ENERGY_CHANGES, parseProcedureStateId, procedureStateId, stepMap, type EnergyChange } from '@/lib/trees/graph';
+import { parseProcedureStateId, procedureStateId, stepMap, type EnergyChange } from '@/lib/trees/graph';
 import type {
   ActionStep,
   Caution,
@@ -479,7 +479,7 @@ export function createDiagnosisMachine(treeVersion: TreeVersion) {
   }
 
   for (const finding of findings) {
-    retakes.forEach((r, i) => {
+    retakes.forEach((r) => {
       const ids = retakeIds(r.measure.id, finding.id);
       if (r.reconnect) {
         walk[ids.reconnect] = {
@@ -507,7 +507,6 @@ export function createDiagnosisMachine(treeVersion: TreeVersion) {
           ),
         },
       };
-      void i;
     });
     const verifyId = `${VERIFY}${finding.id}`;
     walk[verifyId] = {
@@ -815,5 +814,3 @@ export function replayAnswers(
   settle();
   return { ok: true, actor, snapshot: actor.getSnapshot() };
 }
-
-export { ENERGY_CHANGES };

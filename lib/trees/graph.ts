@@ -35,10 +35,6 @@ export function parseProcedureStateId(stateId: string): { changes: EnergyChange[
   return { changes: changes as EnergyChange[], targetId: stateId.slice(at + 2) };
 }
 
-/** The first revision's names for the two electric procedures (still valid state ids). */
-export const LOCK_OUT_PREFIX = 'lock-out--';
-export const RE_ENERGIZE_PREFIX = 're-energize--';
-
 export function outgoingEdges(step: Step): Edge[] {
   switch (step.kind) {
     case 'measure':

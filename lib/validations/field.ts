@@ -118,11 +118,6 @@ export const unitFactsShape = {
   controlSupply: z.enum(['24v', 'line'], { error: 'Control supply is 24v or line.' }).optional(),
   draft: z.enum(['induced', 'natural'], { error: 'Draft is induced or natural.' }).optional(),
 };
-const someFact = (f: Record<string, unknown>) => ['ignition', 'fuel', 'controlSupply', 'draft'].some((k) => f[k] !== undefined);
-export const unitFactsSchema = z
-  .strictObject(unitFactsShape, { error: objectError('the unit record') })
-  .refine(someFact, { message: 'Say which fact of the unit record to correct.' });
-export type UnitFactsInput = z.infer<typeof unitFactsSchema>;
 
 /** "None of these fits" / "I can't take this reading": the diagnosis goes to the leads with this note. */
 export const escalateSchema = z.strictObject(
