@@ -10,11 +10,11 @@ import {
   SUPPLY_LABELS,
 } from '@/components/calls/format';
 import { Verdict } from '@/components/calls/readings-table';
-import type { CallReport } from '@/lib/server/calls';
+import type { CallReportOut } from '@/lib/validations/api';
 
 export const REPORT_DEFERRAL = "This report does not replace local codes, the equipment manufacturer's instructions or licensed practice.";
 
-type Diagnosis = CallReport['diagnoses'][number];
+type Diagnosis = CallReportOut['diagnoses'][number];
 type PathStep = Diagnosis['steps'][number];
 
 function Meta({ items }: { items: [string, React.ReactNode][] }) {
@@ -87,7 +87,7 @@ function StepLine({ step, timeZone }: { step: PathStep; timeZone: string }) {
 }
 
 /** The service report: a plain document that reads the same on a screen and on paper. */
-export function ServiceReport({ report }: { report: CallReport }) {
+export function ServiceReport({ report }: { report: CallReportOut }) {
   const { company, call, unit, site, diagnoses, cautions, reasons } = report;
   const tz = company.timeZone;
   const v = call.verification;

@@ -356,7 +356,6 @@ export async function getCallReport({ scope, id }: { scope: Scope; id: string })
     reasons,
   };
 }
-export type CallReport = Awaited<ReturnType<typeof getCallReport>>;
 
 /** Calls of a unit with their findings, readings, and the flame signal across visits for the plot. */
 export async function getUnitPage({ scope, id }: { scope: Scope; id: string }) {

@@ -8,6 +8,7 @@ import { ROLES } from '@/lib/roles';
 import { CALL_STATUSES } from '@/lib/validations/field';
 import {
   actionStepSchema,
+  cautionSchema,
   factStepSchema,
   findingStepSchema,
   inspectStepSchema,
@@ -256,6 +257,49 @@ export const answerResultSchema = z.object({
   auto: z.array(apiAnswerSchema).default([]),
 });
 export type AnswerResult = z.output<typeof answerResultSchema>;
+
+/** The service report (web page, and later the PDF): the call with each diagnosis's path, finding and the cautions observed. */
+export const callReportSchema = z.object({
+  company: z.object({ name: z.string(), officeEmail: z.string().nullable(), timeZone: z.string() }),
+  call: serviceCallSchema,
+  unit: unitOutSchema.pick({
+    label: true,
+    ignition: true,
+    fuel: true,
+    controlSupply: true,
+    draft: true,
+    transformerVa: true,
+    installYear: true,
+  }),
+  site: siteOutSchema,
+  diagnoses: z.array(
+    z.object({
+      id: z.string(),
+      status: diagnosisStatusSchema,
+      treeTitle: z.string(),
+      treeVersion: z.number(),
+      startedBy: z.string().nullable(),
+      startedByRole: roleSchema.nullable(),
+      startedAt: isoDate,
+      signedOff: z.object({ by: z.string().nullable(), at: optionalDate }).nullable(),
+      finding: z.object({ title: z.string() }).nullable(),
+      findingDetail: apiFindingSchema.nullable(),
+      contradictions: z.array(contradictionSchema),
+      steps: z.array(
+        apiAnswerSchema.extend({
+          instruction: z.string(),
+          points: z.tuple([z.string(), z.string()]).nullable(),
+          checklist: z.array(z.string()),
+          /** An energy procedure the diagnosis inserted, by what it did. */
+          procedure: z.enum(['lock-out', 're-energize', 'energy']).nullable(),
+        }),
+      ),
+    }),
+  ),
+  cautions: z.array(cautionSchema),
+  reasons: z.array(z.object({ kind: z.enum(['referred', 'reopened']), at: isoDate, by: z.string().nullable(), note: z.string() })),
+});
+export type CallReportOut = z.output<typeof callReportSchema>;
 
 export const escalationListSchema = z.array(
   z.object({
