@@ -71,6 +71,12 @@ export const POLICY = {
 
   'trees.list': { roles: everyone },
   'treeVersions.get': { roles: everyone },
+
+  // ── Tree authoring: drafts, review, publishing, diff, import and export ──
+
+  // ── Training: the bench, practice scenarios, attempts and the isolation check ──
+
+  // ── Photos, the report as PDF, and e-mail ──
 } as const satisfies Record<string, Access>;
 
 export type OperationName = keyof typeof POLICY;
