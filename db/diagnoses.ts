@@ -29,6 +29,8 @@ export interface DiagnosisRecord {
   currentState: string | null;
   energy: EnergyState | null;
   lastSeq: number;
+  /** Raised by every change of the state; a save writes only at the revision it read. */
+  revision: number;
   escalation: { note: string; by: string | null; at: Date | null } | null;
 }
 
@@ -73,6 +75,7 @@ const toDiagnosis = (r: Record<string, unknown>): DiagnosisRecord => ({
   currentState: (r.current_state as string | null) ?? null,
   energy: r.energy ? { electric: r.energy === 'locked-out' ? 'off' : 'on', gas: r.gas === 'off' ? 'off' : 'on' } : null,
   lastSeq: (r.last_seq as number) ?? 0,
+  revision: (r.revision as number) ?? 0,
   escalation:
     r.escalation_note != null
       ? {
@@ -219,6 +222,7 @@ export async function saveDiagnosisState(
       current_state: currentState,
       ...energyColumns(energy),
       last_seq: lastSeq,
+      revision: trx.raw('revision + 1'),
       ...(clearSignOff ? { signed_off_by: null, signed_off_at: null } : {}),
     });
 }
@@ -265,12 +269,190 @@ export async function maxAnswerSeq({ diagnosisId }: { diagnosisId: string }, trx
   return Number(row?.max ?? 0);
 }
 
-export async function findAnswerByClientId(
-  { companyId, diagnosisId, clientId }: { companyId: string; diagnosisId: string; clientId: string },
+/** What a save reads, in one statement and without a lock: the call, the diagnosis, and an answer already stored under the client's id. */
+export interface SaveContext {
+  call: { id: string; status: CallStatus; unit: UnitFacts };
+  /** The diagnosis row (without the names of the people on it). */
+  diagnosis: DiagnosisRecord;
+  /** The answer stored earlier under this client id (a retried save), with what it answered. */
+  earlier: { stepId: string; response: unknown } | null;
+}
+
+export async function readForSave(
+  { scope, diagnosisId, clientId }: { scope: Scope; diagnosisId: string; clientId: string },
   trx: Knex = db,
-): Promise<AnswerRecord | null> {
-  const row = await trx('answers').where({ company_id: companyId, diagnosis_id: diagnosisId, client_id: clientId }).first();
-  return row ? toAnswer(row) : null;
+): Promise<SaveContext> {
+  if (!isUuid(diagnosisId)) throw notFound('That diagnosis');
+  const row = await scopeCalls(
+    trx('diagnoses as d')
+      .join('service_calls as c', 'c.id', 'd.call_id')
+      .join('units as un', 'un.id', 'c.unit_id')
+      .leftJoin('answers as e', function () {
+        this.on('e.diagnosis_id', 'd.id').andOnVal('e.client_id', clientId);
+      }),
+    scope,
+  )
+    .where({ 'd.id': diagnosisId, 'd.company_id': scope.companyId })
+    .select(
+      'd.*',
+      'c.status as call_status',
+      'un.ignition',
+      'un.fuel',
+      'un.control_supply',
+      'un.draft',
+      'e.step_id as earlier_step_id',
+      'e.response as earlier_response',
+    )
+    .first();
+  if (!row) throw notFound('That diagnosis');
+  return {
+    call: {
+      id: row.call_id,
+      status: row.call_status,
+      unit: { ignition: row.ignition, fuel: row.fuel, controlSupply: row.control_supply, draft: row.draft ?? 'induced' },
+    },
+    diagnosis: toDiagnosis(row),
+    earlier: row.earlier_step_id ? { stepId: row.earlier_step_id, response: row.earlier_response } : null,
+  };
+}
+
+/** A row of `answers` as a save writes it. */
+export interface AnswerRow extends NewAnswer {
+  id: string;
+  userId: string;
+  seq: number;
+  createdAt: Date;
+  response: unknown;
+}
+
+const ANSWER_COLUMNS = [
+  'id',
+  'company_id',
+  'diagnosis_id',
+  'user_id',
+  'seq',
+  'created_at',
+  'client_id',
+  'step_id',
+  'step_kind',
+  'text',
+  'value',
+  'unit',
+  'quantity',
+  'band_index',
+  'band_label',
+  'verdict',
+  'choice',
+  'confirmed',
+  'over_range',
+  'auto',
+  'response',
+].join(', ');
+
+// One statement: the call's row share-locked if it is still open (so a close waits for it, and
+// locks go call, then diagnosis, as in every other unit of work), the diagnosis moved on only if it
+// is still at the revision the save read and still open, the answers inserted and the call marked
+// repaired only if it was. Atomic on its own: no transaction is held while the machine runs.
+const COMMIT_SAVE = `
+WITH c AS (
+  SELECT id FROM service_calls
+  WHERE id = :callId AND company_id = :companyId AND status NOT IN ('closed', 'referred')
+  FOR SHARE
+), d AS (
+  UPDATE diagnoses SET
+    status = :status,
+    finding_step_id = :findingStepId,
+    finished_at = CASE WHEN :status IN ('in_progress', 'found') THEN NULL ELSE now() END,
+    current_state = :currentState,
+    energy = :energy,
+    gas = :gas,
+    last_seq = :lastSeq,
+    revision = revision + 1
+  WHERE id = :id AND company_id = :companyId AND revision = :revision
+    AND status IN ('in_progress', 'found') AND EXISTS (SELECT 1 FROM c)
+  RETURNING id
+), a AS (
+  INSERT INTO answers (${ANSWER_COLUMNS})
+  SELECT ${ANSWER_COLUMNS} FROM jsonb_populate_recordset(CAST(NULL AS answers), CAST(:rows AS jsonb))
+  WHERE EXISTS (SELECT 1 FROM d)
+  RETURNING id
+), r AS (
+  UPDATE service_calls SET status = 'repaired'
+  WHERE id = :callId AND :repaired AND status IN ('open', 'diagnosing') AND EXISTS (SELECT 1 FROM d)
+  RETURNING id
+)
+SELECT (SELECT count(*) FROM d) AS saved`;
+
+/**
+ * Writes a save: the answers (the technician's and the unit-record branches after it), the new
+ * state, and the call repaired when the visit is verified. Says whether it landed: false when the
+ * diagnosis changed since `revision` was read, is no longer open, or its call was closed.
+ */
+export async function commitSave(
+  {
+    companyId,
+    callId,
+    id,
+    revision,
+    status,
+    findingStepId,
+    currentState,
+    energy,
+    lastSeq,
+    rows,
+    repaired,
+  }: {
+    companyId: string;
+    callId: string;
+    id: string;
+    revision: number;
+    status: DiagnosisStatus;
+    findingStepId: string | null;
+    currentState: string;
+    energy: EnergyState;
+    lastSeq: number;
+    rows: AnswerRow[];
+    repaired: boolean;
+  },
+  trx: Knex = db,
+): Promise<boolean> {
+  const json = rows.map((a) => ({
+    id: a.id,
+    company_id: companyId,
+    diagnosis_id: id,
+    user_id: a.userId,
+    seq: a.seq,
+    created_at: a.createdAt.toISOString(),
+    client_id: a.clientId,
+    step_id: a.stepId,
+    step_kind: a.stepKind,
+    text: a.text ?? null,
+    value: a.value ?? null,
+    unit: a.unit ?? null,
+    quantity: a.quantity ?? null,
+    band_index: a.bandIndex ?? null,
+    band_label: a.bandLabel ?? null,
+    verdict: a.verdict ?? null,
+    choice: a.choice ?? null,
+    confirmed: a.confirmed ?? null,
+    over_range: a.overRange ?? false,
+    auto: a.auto ?? false,
+    response: a.response ?? null,
+  }));
+  const result = await trx.raw(COMMIT_SAVE, {
+    callId,
+    companyId,
+    id,
+    revision,
+    status,
+    findingStepId,
+    currentState,
+    ...energyColumns(energy),
+    lastSeq,
+    rows: JSON.stringify(json),
+    repaired,
+  });
+  return Number(result.rows[0].saved) === 1;
 }
 
 export interface NewAnswer {

@@ -4,8 +4,8 @@ import { CLOSED_STATUSES, getCall, recordCallEvent, setCallStatus } from '@/db/c
 import {
   createDiagnosis,
   escalateDiagnosis,
-  findAnswerByClientId,
   getCallOfDiagnosis,
+  commitSave,
   getDiagnosis,
   insertAnswer,
   listAnswersForDiagnoses,
@@ -14,6 +14,7 @@ import {
   markAnswerUndone,
   maxAnswerSeq,
   saveDiagnosisState,
+  readForSave,
   signOffDiagnosis,
   type AnswerRecord,
   type DiagnosisRecord,
@@ -34,7 +35,7 @@ import { parseReading } from '@/lib/units';
 import type { Role } from '@/lib/roles';
 import type { answerResultSchema } from '@/lib/validations/api';
 import type { z } from 'zod';
-import type { AnswerInput } from '@/lib/validations/field';
+import type { AnswerInput, CallStatus } from '@/lib/validations/field';
 import { toApiFinding, toApiStep } from '@/lib/server/steps';
 import {
   advance,
@@ -151,22 +152,23 @@ function autoRecords(version: TreeVersion, autos: AutoAnswer[], firstSeq: number
   }));
 }
 
+/** What is stored of a unit-record branch the diagnosis took by itself. */
+const autoAnswer = (r: AnswerRecord): NewAnswer => ({
+  clientId: r.clientId,
+  stepId: r.stepId,
+  stepKind: 'fact',
+  text: r.text,
+  choice: r.choice,
+  auto: true,
+});
+
 async function insertAutos(
   { companyId, diagnosisId, records }: { companyId: string; diagnosisId: string; records: AnswerRecord[] },
   trx: Knex,
 ) {
   for (const r of records) {
     await insertAnswer(
-      {
-        companyId,
-        diagnosisId,
-        userId: r.userId!,
-        id: r.id,
-        seq: r.seq,
-        createdAt: r.createdAt,
-        answer: { clientId: r.clientId, stepId: r.stepId, stepKind: 'fact', text: r.text, choice: r.choice, auto: true },
-        response: null,
-      },
+      { companyId, diagnosisId, userId: r.userId!, id: r.id, seq: r.seq, createdAt: r.createdAt, answer: autoAnswer(r), response: null },
       trx,
     );
   }
@@ -425,124 +427,141 @@ async function readingsFor(
 
 const OPEN_STATUSES = ['in_progress', 'found'];
 
+/** The answer a retried save gets: what the first one got, if it was for the same step. */
+function replayedSave(earlier: { stepId: string; response: unknown }, input: AnswerInput): AnswerResult {
+  if (earlier.stepId !== input.stepId) throw new AppError('conflict', 'That clientId was already used for another step.');
+  return earlier.response as AnswerResult;
+}
+
+/** Why a diagnosis does not take answers, or null when it does. */
+function refusal(call: { status: CallStatus }, diagnosis: DiagnosisRecord): AppError | null {
+  if (isClosed(call.status)) return closedConflict();
+  if (diagnosis.status === 'escalated') return new AppError('conflict', 'This diagnosis was escalated; its answers cannot change.');
+  if (!OPEN_STATUSES.includes(diagnosis.status)) {
+    return new AppError('conflict', 'This visit is finished: the repair is verified. Undo the last answer to change it.');
+  }
+  return null;
+}
+
 /**
  * Saves one answer: idempotent by the client's id, checked against the current step kept on the
  * diagnosis row, moved on by one machine transition (and the unit-record branches after it),
  * answered with what the wizard needs next.
+ *
+ * A save is one read and one write, and holds no transaction while the machine runs: it reads the
+ * call, the diagnosis and any answer already stored under the client's id in one statement, and
+ * writes in one statement (`commitSave`) that lands only if the diagnosis is still at the revision
+ * it read. Of two saves at once (or a save beside an undo), one lands; the other reads again and
+ * answers as a retry (the same client id) or a 409.
  */
 export async function answerDiagnosis({ scope, id, input }: { scope: Scope; id: string; input: AnswerInput }): Promise<AnswerResult> {
-  return db.transaction(async (trx) => {
-    const call = await getCallOfDiagnosis({ scope, diagnosisId: id, lock: 'share' }, trx);
-    const diagnosis = await getDiagnosis({ companyId: scope.companyId, id, forUpdate: true }, trx);
-    const version = machineVersion(await getTreeVersion({ companyId: scope.companyId, id: diagnosis.treeVersionId }, trx));
+  const { call, diagnosis, earlier } = await readForSave({ scope, diagnosisId: id, clientId: input.clientId });
+  if (earlier) return replayedSave(earlier, input);
+  const version = machineVersion(await getTreeVersion({ companyId: scope.companyId, id: diagnosis.treeVersionId }));
+  if (!diagnosis.currentState || !diagnosis.energy) {
+    // A row made before the state was kept on it: store the state once, then save as usual.
+    await db.transaction(async (trx) => {
+      const locked = await getDiagnosis({ companyId: scope.companyId, id, forUpdate: true }, trx);
+      if (!locked.currentState || !locked.energy) await stateOf(locked, version, trx);
+    });
+    return answerDiagnosis({ scope, id, input });
+  }
 
-    // A retried save: send back what the first one got, store nothing new.
-    const earlier = await findAnswerByClientId({ companyId: scope.companyId, diagnosisId: id, clientId: input.clientId }, trx);
-    if (earlier) {
-      if (earlier.stepId !== input.stepId) throw new AppError('conflict', 'That clientId was already used for another step.');
-      return earlier.response as AnswerResult;
-    }
-
-    // The answer is checked against the step it names first, so bad input is a 400 whatever the
-    // diagnosis's state; only a well-formed answer to a step that is not current is a 409.
-    const readings = await readingsFor({ companyId: scope.companyId, diagnosisId: id, version, stepId: input.stepId }, trx);
-    const { step, stored, machine, verdict } = readAnswer(version, input, readings);
-    if (isClosed(call.status)) throw closedConflict();
-    if (diagnosis.status === 'escalated') throw new AppError('conflict', 'This diagnosis was escalated; its answers cannot change.');
-    if (!OPEN_STATUSES.includes(diagnosis.status)) {
-      throw new AppError('conflict', 'This visit is finished: the repair is verified. Undo the last answer to change it.');
-    }
-    const state = await stateOf(diagnosis, version, trx);
-    if (step.id !== state.stateId) {
-      const current = getStep(version, state.stateId);
-      throw new AppError(
-        'conflict',
-        `This diagnosis is at "${current?.title ?? state.stateId}", not at "${step.title}". Reload to see where it stands.`,
-      );
-    }
-    const moved = advance(version, state, machine, { unit: call.unit, readings });
-    if (!moved.ok) throw new AppError('bad_request', moved.error);
-    const status = statusOf(version, moved.state.stateId);
-    const phase = phaseOf(version, moved.state.stateId);
-    const finding = findingOf(version, moved.state.findingId);
-    const reachedFinding = finding !== null && phase === 'repair' && step.kind !== 'finding';
-
-    const record: AnswerRecord = {
-      id: crypto.randomUUID(),
-      seq: state.lastSeq + 1,
-      createdAt: new Date(),
-      userId: scope.userId,
-      undoneAt: null,
-      response: null,
-      text: null,
-      value: null,
-      unit: null,
-      quantity: null,
-      bandIndex: null,
-      bandLabel: null,
-      verdict: null,
-      choice: null,
-      confirmed: null,
-      overRange: false,
-      auto: false,
-      ...stored,
-    } as AnswerRecord;
-    const autos = autoRecords(version, moved.autos, record.seq + 1, scope.userId);
-    const contradictions =
-      finding && (reachedFinding || phase === 'done')
-        ? await contradictionsFor(
-            {
-              companyId: scope.companyId,
-              callId: call.id,
-              version,
-              finding,
-              extra: record,
-              path: phase === 'done' ? await listPathAnswers({ companyId: scope.companyId, diagnosisId: id }, trx) : [],
-              verified: phase === 'done',
-            },
-            trx,
-          )
-        : [];
-    const result: AnswerResult = {
-      answer: toApiAnswer(record, version),
-      next: phase === 'done' ? null : toApiStep(moved.step),
-      finding: finding ? toApiFinding(finding) : null,
-      ...(verdict ? { verdict } : {}),
-      diagnosis: { status, ...energyOut(moved.state.energy), phase, contradictions },
-      auto: autos.map((a) => toApiAnswer(a, version)),
-    };
-    await insertAnswer(
-      {
-        companyId: scope.companyId,
-        diagnosisId: id,
-        userId: scope.userId,
-        id: record.id,
-        seq: record.seq,
-        createdAt: record.createdAt,
-        answer: stored,
-        response: result,
-      },
-      trx,
+  // The answer is checked against the step it names first, so bad input is a 400 whatever the
+  // diagnosis's state; only a well-formed answer to a step that is not current is a 409.
+  const readings = await readingsFor({ companyId: scope.companyId, diagnosisId: id, version, stepId: input.stepId }, db);
+  const { step, stored, machine, verdict } = readAnswer(version, input, readings);
+  const refused = refusal(call, diagnosis);
+  if (refused) throw refused;
+  const state = await stateOf(diagnosis, version, db);
+  if (step.id !== state.stateId) {
+    const current = getStep(version, state.stateId);
+    throw new AppError(
+      'conflict',
+      `This diagnosis is at "${current?.title ?? state.stateId}", not at "${step.title}". Reload to see where it stands.`,
     );
-    await insertAutos({ companyId: scope.companyId, diagnosisId: id, records: autos }, trx);
+  }
+  const moved = advance(version, state, machine, { unit: call.unit, readings });
+  if (!moved.ok) throw new AppError('bad_request', moved.error);
+  const status = statusOf(version, moved.state.stateId);
+  const phase = phaseOf(version, moved.state.stateId);
+  const finding = findingOf(version, moved.state.findingId);
+  const reachedFinding = finding !== null && phase === 'repair' && step.kind !== 'finding';
+
+  const record: AnswerRecord = {
+    id: crypto.randomUUID(),
+    seq: state.lastSeq + 1,
+    createdAt: new Date(),
+    userId: scope.userId,
+    undoneAt: null,
+    response: null,
+    text: null,
+    value: null,
+    unit: null,
+    quantity: null,
+    bandIndex: null,
+    bandLabel: null,
+    verdict: null,
+    choice: null,
+    confirmed: null,
+    overRange: false,
+    auto: false,
+    ...stored,
+  } as AnswerRecord;
+  const autos = autoRecords(version, moved.autos, record.seq + 1, scope.userId);
+  const contradictions =
+    finding && (reachedFinding || phase === 'done')
+      ? await contradictionsFor(
+          {
+            companyId: scope.companyId,
+            callId: call.id,
+            version,
+            finding,
+            extra: record,
+            path: phase === 'done' ? await listPathAnswers({ companyId: scope.companyId, diagnosisId: id }) : [],
+            verified: phase === 'done',
+          },
+          db,
+        )
+      : [];
+  const result: AnswerResult = {
+    answer: toApiAnswer(record, version),
+    next: phase === 'done' ? null : toApiStep(moved.step),
+    finding: finding ? toApiFinding(finding) : null,
+    ...(verdict ? { verdict } : {}),
+    diagnosis: { status, ...energyOut(moved.state.energy), phase, contradictions },
+    auto: autos.map((a) => toApiAnswer(a, version)),
+  };
+  const saved = await commitSave({
+    companyId: scope.companyId,
+    callId: call.id,
+    id,
+    revision: diagnosis.revision,
+    status,
+    findingStepId: finding?.id ?? null,
+    currentState: moved.state.stateId,
+    energy: moved.state.energy,
+    lastSeq: record.seq + autos.length,
+    rows: [
+      { ...record, ...stored, userId: scope.userId, response: result },
+      ...autos.map((a) => ({ ...autoAnswer(a), id: a.id, userId: scope.userId, seq: a.seq, createdAt: a.createdAt, response: null })),
+    ],
     // A verified repair makes the call repaired: it can be closed.
-    if (status === 'verified') {
-      await setCallStatus({ companyId: scope.companyId, id: call.id, status: 'repaired', from: ['open', 'diagnosing'] }, trx);
-    }
-    await saveDiagnosisState(
-      {
-        companyId: scope.companyId,
-        id,
-        status,
-        findingStepId: finding?.id ?? null,
-        currentState: moved.state.stateId,
-        energy: moved.state.energy,
-        lastSeq: record.seq + autos.length,
-      },
-      trx,
-    );
-    return result;
+    repaired: status === 'verified',
   });
+  if (saved) return result;
+
+  // Something changed since the read: this very answer (a retry sent at the same time), another
+  // answer or an undo, an escalation, or the call was closed.
+  const now = await readForSave({ scope, diagnosisId: id, clientId: input.clientId });
+  if (now.earlier) return replayedSave(now.earlier, input);
+  throw (
+    refusal(now.call, now.diagnosis) ??
+    new AppError(
+      'conflict',
+      'This diagnosis changed while the answer was being saved (another answer or an undo). Reload to see where it stands.',
+    )
+  );
 }
 
 /**

@@ -251,4 +251,66 @@ describe('saves under real parallel requests', () => {
     const view = await tech.get(`/api/diagnoses/${d.id}`);
     expect(view.json.path).toHaveLength(1);
   });
+  it('lands exactly one of several different answers to the same step sent at once; the others get 409', async () => {
+    const tech = await signedIn(DEMO.technician);
+    const d = await newDiagnosis(tech);
+    const bodies = Array.from({ length: 6 }, () => ({ clientId: randomUUID(), ...answerFor(d.step) }));
+    const results = await Promise.all(bodies.map((b) => tech.post(`/api/diagnoses/${d.id}/answers`, b)));
+    expect(results.map((r) => r.status).sort()).toEqual([200, 409, 409, 409, 409, 409]);
+    expect(results.find((r) => r.status === 409)!.json.error.message).toMatch(/Reload/);
+    const rows = await db('answers').where({ diagnosis_id: d.id });
+    expect(rows).toHaveLength(1);
+    const view = await tech.get(`/api/diagnoses/${d.id}`);
+    expect(view.json.path).toHaveLength(1);
+    expect(view.json.current.id).toBe(results.find((r) => r.status === 200)!.json.next.id);
+  });
+
+  it('keeps the path and the stored rows in step when saves and undos of one diagnosis race', async () => {
+    const tech = await signedIn(DEMO.technician);
+    const d = await newDiagnosis(tech);
+    const first = await tech.post(`/api/diagnoses/${d.id}/answers`, { clientId: randomUUID(), ...answerFor(d.step) });
+    expect(first.status, first.text).toBe(200);
+    const next = answerFor(first.json.next);
+    const results = await Promise.all([
+      ...Array.from({ length: 3 }, () => tech.post(`/api/diagnoses/${d.id}/answers`, { clientId: randomUUID(), ...next })),
+      ...Array.from({ length: 3 }, () => tech.call('DELETE', `/api/diagnoses/${d.id}/answers/last?last=${first.json.answer.clientId}`)),
+    ]);
+    expect(results.filter((r) => r.status !== 200 && r.status !== 409)).toEqual([]);
+    const saves = results.slice(0, 3).filter((r) => r.status === 200).length;
+    const undos = results.slice(3).filter((r) => r.status === 200).length;
+    // An undo names the first answer as the last one: it lands only before any second answer did.
+    expect(saves + undos).toBeGreaterThanOrEqual(1);
+    expect(saves).toBeLessThanOrEqual(1);
+    expect(undos).toBeLessThanOrEqual(1);
+    const rows = await db('answers').where({ diagnosis_id: d.id }).whereNull('undone_at').orderBy('seq');
+    const view = await tech.get(`/api/diagnoses/${d.id}`);
+    expect(view.json.path.map((a: any) => a.id)).toEqual(rows.map((r: any) => r.id));
+    expect(rows).toHaveLength(1 + saves - undos);
+  });
+
+  it('lets one of four escalations of a diagnosis win; the others get 409', async () => {
+    const tech = await signedIn(DEMO.technician);
+    const d = await newDiagnosis(tech);
+    const results = await Promise.all(
+      Array.from({ length: 4 }, (_, i) => tech.post(`/api/diagnoses/${d.id}/escalate`, { note: `Nothing fits (copy ${i})` })),
+    );
+    expect(results.map((r) => r.status).sort()).toEqual([200, 409, 409, 409]);
+    const row = await db('diagnoses').where({ id: d.id }).first();
+    expect(row.status).toBe('escalated');
+  });
+
+  it('stores no answer once its call is referred: a save and a referral at once end one way or the other', async () => {
+    const tech = await signedIn(DEMO.technician);
+    const d = await newDiagnosis(tech);
+    const [save, refer] = await Promise.all([
+      tech.post(`/api/diagnoses/${d.id}/answers`, { clientId: randomUUID(), ...answerFor(d.step) }),
+      tech.post(`/api/calls/${d.callId}/close`, { outcome: 'referred', reason: 'Part on order' }),
+    ]);
+    expect([200, 409]).toContain(save.status);
+    expect(refer.status, refer.text).toBe(200);
+    const rows = await db('answers').where({ diagnosis_id: d.id });
+    expect(rows).toHaveLength(save.status === 200 ? 1 : 0);
+    const after = await tech.post(`/api/diagnoses/${d.id}/answers`, { clientId: randomUUID(), ...answerFor(d.step) });
+    expect(after.status).toBe(409);
+  });
 });
