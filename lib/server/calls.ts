@@ -354,6 +354,8 @@ export async function getCallReport({ scope, id }: { scope: Scope; id: string })
     diagnoses: paths,
     cautions: observed,
     reasons,
+    events: events.map(({ diagnosisId: _d, ...e }) => e),
+    photos: [],
   };
 }
 

@@ -258,7 +258,7 @@ export const answerResultSchema = z.object({
 });
 export type AnswerResult = z.output<typeof answerResultSchema>;
 
-/** The service report (web page, and later the PDF): the call with each diagnosis's path, finding and the cautions observed. */
+/** The service report (web page and PDF, customer and office versions): the call with each diagnosis's path, finding and the cautions observed. */
 export const callReportSchema = z.object({
   company: z.object({ name: z.string(), officeEmail: z.string().nullable(), timeZone: z.string() }),
   call: serviceCallSchema,
@@ -298,6 +298,20 @@ export const callReportSchema = z.object({
   ),
   cautions: z.array(cautionSchema),
   reasons: z.array(z.object({ kind: z.enum(['referred', 'reopened']), at: isoDate, by: z.string().nullable(), note: z.string() })),
+  /** Who did what to the call (the office record): referred, closed, reopened, reassigned, signed off. */
+  events: z.array(
+    z.object({
+      id: z.string(),
+      kind: z.enum(['closed', 'referred', 'reopened', 'reassigned', 'signed_off']),
+      at: isoDate,
+      actorName: z.string().nullable(),
+      note: z.string().nullable(),
+      fromName: z.string().nullable(),
+      toName: z.string().nullable(),
+    }),
+  ),
+  /** Photos of the call, its readings and findings (ids for /api/attachments/{id}), oldest first. */
+  photos: z.array(z.object({ id: z.string(), answerId: z.string().nullable(), caption: z.string().nullable() })).default([]),
 });
 export type CallReportOut = z.output<typeof callReportSchema>;
 
