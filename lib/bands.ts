@@ -45,6 +45,22 @@ export function findBand(bands: readonly Band[], value: number): BandMatch | nul
 }
 
 /**
+ * The latest reading of each measure step, in path order: what a band relative to an earlier
+ * reading is measured from. An over-range reading ("OL", stored without a value) counts as +∞.
+ * The server, the diagnosis machine and the wizard all take the readings of a path this way.
+ */
+export function latestReadings(
+  answers: Iterable<{ stepId: string; value?: number | null; overRange?: boolean | null }>,
+): Record<string, number> {
+  const readings: Record<string, number> = {};
+  for (const a of answers) {
+    if (a.value !== undefined && a.value !== null) readings[a.stepId] = a.value;
+    else if (a.overRange) readings[a.stepId] = Number.POSITIVE_INFINITY;
+  }
+  return readings;
+}
+
+/**
  * A step's bands in absolute terms: for bands relative to an earlier reading (`reference`), each
  * limit plus that reading (or the reference's fallback when the walk did not take it).
  */

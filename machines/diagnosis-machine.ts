@@ -13,7 +13,7 @@
 //
 // Nothing here is final but `done`, so the actor stays active at a finding and undo still works.
 import { assign, createActor, setup, transition, type Actor, type SnapshotFrom, type StateValue } from 'xstate';
-import { findBand, shiftedBands } from '@/lib/bands';
+import { findBand, latestReadings, shiftedBands } from '@/lib/bands';
 import { parseProcedureStateId, procedureStateId, stepMap, type EnergyChange } from '@/lib/trees/graph';
 import type {
   ActionStep,
@@ -351,8 +351,7 @@ function makeSetup(steps: (id: string) => Step | undefined) {
         const last = context.path.at(-1);
         if (!last) return {};
         const path = context.path.slice(0, -1);
-        const readings: Record<string, number> = {};
-        for (const e of path) if (e.value !== undefined) readings[e.stepId] = e.value;
+        const readings = latestReadings(path);
         // The finding stays only while the undone answer came after it (the repair or the checks).
         const findingId = path.some((e) => e.outcome === context.findingId) ? context.findingId : null;
         return { path, energy: last.energyBefore, readings, findingId };

@@ -536,13 +536,6 @@ export interface PathItem {
   saved: boolean;
 }
 
-/** The latest reading of each measure step among the answers (bands relative to one of them use it). */
-export function readingsOf(answers: readonly Pick<WizardAnswer, 'stepId' | 'value'>[]): Record<string, number> {
-  const readings: Record<string, number> = {};
-  for (const a of answers) if (a.value !== undefined) readings[a.stepId] = a.value;
-  return readings;
-}
-
 export function pathItems(context: Pick<WizardContext, 'version' | 'saved' | 'pending'>): PathItem[] {
   const readings: Record<string, number> = {};
   const item = (a: WizardAnswer & { band?: string | null; verdict?: string | null }, saved: boolean): PathItem => {

@@ -4,7 +4,7 @@ import { useMachine } from '@xstate/react';
 import clsx from 'clsx';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { fromPromise } from 'xstate';
-import { findBand, shiftedBands } from '@/lib/bands';
+import { findBand, latestReadings, shiftedBands } from '@/lib/bands';
 import type { ActionStep, EnergyState, FindingStep, InspectStep, MeasureStep, TreeVersion, UnitFacts } from '@/lib/trees/schema';
 import type { Role } from '@/lib/roles';
 import { displayUnitFor, OVER_RANGE_ENTRY, type UnitSystem } from '@/lib/units';
@@ -13,7 +13,6 @@ import type { ActionResult, AnswerResult, DiagnosisViewOut } from '@/lib/validat
 import { getStep, phaseOf } from '@/machines/diagnosis-machine';
 import {
   pathItems,
-  readingsOf,
   syncStatus,
   wizardMachine,
   type PendingAnswer,
@@ -210,7 +209,7 @@ export function Wizard({
   const finding = ctx.findingId ? (getStep(version, ctx.findingId) as FindingStep | undefined) : undefined;
   const phase = phaseOf(version, ctx.stepId);
   const escalated = view.status === 'escalated';
-  const readings = readingsOf([...ctx.saved, ...ctx.pending]);
+  const readings = latestReadings([...ctx.saved, ...ctx.pending]);
   const canEscalate = !escalated && phase !== 'done' && view.callStatus !== 'closed' && view.callStatus !== 'referred';
   const footer = (
     <div className="space-y-4">

@@ -23,7 +23,7 @@ import {
 import { db } from '@/db/knex';
 import { getTreeVersion, type TreeVersionRecord } from '@/db/trees';
 import { getUnit } from '@/db/units';
-import { evaluateReading } from '@/lib/bands';
+import { evaluateReading, latestReadings } from '@/lib/bands';
 import { checkConsistency, type Contradiction } from '@/lib/consistency';
 import { AppError } from '@/lib/errors';
 import type { Scope } from '@/lib/policy';
@@ -417,12 +417,7 @@ async function readingsFor(
   const relative = step?.kind === 'measure' && (step as MeasureStep).reference;
   const phase = phaseOf(version, stepId);
   if (!relative && (phase === 'walk' || phase === 'procedure')) return {};
-  const readings: Record<string, number> = {};
-  for (const a of await listPathAnswers({ companyId, diagnosisId }, trx)) {
-    if (a.value !== null) readings[a.stepId] = a.value;
-    else if (a.overRange) readings[a.stepId] = Number.POSITIVE_INFINITY;
-  }
-  return readings;
+  return latestReadings(await listPathAnswers({ companyId, diagnosisId }, trx));
 }
 
 const OPEN_STATUSES = ['in_progress', 'found'];

@@ -1,4 +1,4 @@
-import { checkBandCoverage, evaluateReading, findBand, gaugeScale } from '@/lib/bands';
+import { checkBandCoverage, evaluateReading, findBand, gaugeScale, latestReadings } from '@/lib/bands';
 import { measureStepSchema, type Band, type MeasureStep } from '@/lib/trees/schema';
 
 const flame: MeasureStep = measureStepSchema.parse({
@@ -139,5 +139,17 @@ describe('checkBandCoverage', () => {
     expect(checkBandCoverage([b(undefined, undefined), b(1, undefined)])).toContainEqual(
       expect.stringMatching(/open above, so it overlaps/),
     );
+  });
+});
+
+describe('latestReadings', () => {
+  it('keeps the last reading of each step in path order, OL as +infinity, and skips answers without a reading', () => {
+    const readings = latestReadings([
+      { stepId: 'transformer-secondary', value: 26.1 },
+      { stepId: 'trial-observe', value: null },
+      { stepId: 'rollout-continuity', value: null, overRange: true },
+      { stepId: 'transformer-secondary', value: 24.3 },
+    ]);
+    expect(readings).toEqual({ 'transformer-secondary': 24.3, 'rollout-continuity': Number.POSITIVE_INFINITY });
   });
 });
