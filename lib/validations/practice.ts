@@ -221,3 +221,49 @@ export const practiceOverviewSchema = z.object({
   attempts: z.array(attemptRowSchema),
 });
 export type PracticeOverview = z.output<typeof practiceOverviewSchema>;
+
+// ── The bench API as the bench screen reads it (the contract of issue 9) ────────────────────────
+
+export const BENCH_POINTS = [
+  'line-hot',
+  'line-neutral',
+  'line-ground',
+  'chassis',
+  'xfmr-hot',
+  'xfmr-common',
+  'fuse-out',
+  'stat-w',
+  'limit-out',
+  'rollout-out',
+  'control-common',
+  'inducer-hot',
+  'ps-in',
+  'ps-out',
+  'valve-hot',
+  'valve-common',
+  'spark-rod',
+  'flame-rod',
+  'burner',
+  'ground-lead',
+] as const;
+export type BenchPoint = (typeof BENCH_POINTS)[number];
+export const SERIES_POINTS = ['flame-rod-lead', 'ground-lead'] as const;
+export type SeriesPoint = (typeof SERIES_POINTS)[number];
+
+export const BENCH_ACTIONS = ['power-on', 'power-off', 'call-for-heat', 'end-call', 'reset-rollout', 'wait'] as const;
+export type BenchAction = (typeof BENCH_ACTIONS)[number];
+export type MeterMode = 'vac' | 'vdc' | 'ohm' | 'udc';
+
+export const benchStateSchema = z.object({
+  id: z.string(),
+  time: z.number(),
+  sequenceState: z.string(),
+  powered: z.boolean(),
+  calling: z.boolean(),
+});
+export type BenchState = z.output<typeof benchStateSchema>;
+export const benchActionReplySchema = z.object({ time: z.number(), sequenceState: z.string() });
+export const benchMeasureReplySchema = z.object({ value: z.number().nullable(), unit: z.string(), time: z.number() });
+export type BenchMeasureReply = z.output<typeof benchMeasureReplySchema>;
+export const benchObserveReplySchema = z.object({ result: z.string(), time: z.number() });
+export type BenchObserveReply = z.output<typeof benchObserveReplySchema>;

@@ -1,0 +1,50 @@
+import type { z, ZodType } from 'zod';
+import { FetchError } from '@/lib/swr/fetcher';
+import {
+  benchActionReplySchema,
+  benchMeasureReplySchema,
+  benchObserveReplySchema,
+  benchStateSchema,
+  type BenchAction,
+  type BenchMeasureReply,
+  type BenchObserveReply,
+  type BenchState,
+  type MeterMode,
+} from '@/lib/validations/practice';
+
+// What the bench screen asks of a bench session. The screen takes it as a prop, so the component
+// tests drive it with a small fake and the page with the HTTP client below.
+export interface BenchClient {
+  state(): Promise<BenchState>;
+  act(action: BenchAction, seconds?: number): Promise<{ time: number; sequenceState: string }>;
+  measure(request: { mode: Exclude<MeterMode, 'udc'>; a: string; b: string } | { mode: 'udc'; series: string }): Promise<BenchMeasureReply>;
+  observe(what: 'spark' | 'flame'): Promise<BenchObserveReply>;
+}
+
+async function send<S extends ZodType>(url: string, schema: S, body?: unknown): Promise<z.output<S>> {
+  const res = await fetch(url, {
+    method: body === undefined ? 'GET' : 'POST',
+    headers: { accept: 'application/json', ...(body === undefined ? {} : { 'content-type': 'application/json' }) },
+    credentials: 'same-origin',
+    body: body === undefined ? undefined : JSON.stringify(body),
+  });
+  const data: unknown = await res.json().catch(() => null);
+  if (!res.ok) {
+    const error = (data as { error?: { message?: string; code?: string } } | null)?.error;
+    throw new FetchError(error?.message ?? `The bench answered ${res.status}.`, res.status, error?.code);
+  }
+  const parsed = schema.safeParse(data);
+  if (!parsed.success) throw new FetchError('The bench sent an answer this screen cannot read. Reload the page.', 500);
+  return parsed.data;
+}
+
+/** The bench API of issue 9 over HTTP, for one session. */
+export function httpBenchClient(sessionId: string): BenchClient {
+  const base = `/api/bench/sessions/${encodeURIComponent(sessionId)}`;
+  return {
+    state: () => send(base, benchStateSchema),
+    act: (action, seconds) => send(`${base}/actions`, benchActionReplySchema, seconds === undefined ? { action } : { action, seconds }),
+    measure: (request) => send(`${base}/measure`, benchMeasureReplySchema, request),
+    observe: (what) => send(`${base}/observe`, benchObserveReplySchema, { what }),
+  };
+}
