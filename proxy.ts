@@ -1,7 +1,8 @@
 import { NextResponse, type NextRequest } from 'next/server';
 
-// The edge of every request: methods and body sizes the app never takes are refused here, every
-// response gets the security headers, and a visitor without a session cookie is sent to sign in.
+// The edge of every page request (the JSON API has its headers from next.config.ts and counts its
+// own bodies): methods and body sizes the app never takes are refused here, every page gets the
+// security headers with a fresh CSP nonce, and a visitor without a session cookie is sent to sign in.
 // Redirects only otherwise: the real checks (the session row, the role, the rows a user reaches)
 // run in every operation and page (lib/server/operation.ts). No database and no lib/server here:
 // this runs before every request and must stay cheap.
@@ -43,13 +44,13 @@ function contentSecurityPolicy(nonce: string): string {
   ].join('; ');
 }
 
-function secure(response: NextResponse, csp: string, api: boolean): NextResponse {
+function secure(response: NextResponse, csp: string, json = false): NextResponse {
   response.headers.set('Content-Security-Policy', csp);
   response.headers.set('X-Content-Type-Options', 'nosniff');
   // frame-ancestors for browsers that know CSP 2, this for the ones that do not.
   response.headers.set('X-Frame-Options', 'DENY');
   response.headers.set('Referrer-Policy', 'same-origin');
-  if (api) response.headers.set('Cache-Control', 'no-store');
+  if (json) response.headers.set('Cache-Control', 'no-store');
   return response;
 }
 
@@ -62,7 +63,6 @@ export function proxy(request: NextRequest) {
   const nonce = newNonce();
   const csp = contentSecurityPolicy(nonce);
   const { pathname } = request.nextUrl;
-  const api = pathname.startsWith('/api/');
 
   if (!ALLOWED_METHODS.includes(request.method)) {
     return refuse(405, 'method_not_allowed', `${request.method} is not a method this app answers.`, csp, {
@@ -74,27 +74,27 @@ export function proxy(request: NextRequest) {
     return refuse(413, 'payload_too_large', 'The request is too large: at most 1 MB.', csp);
   }
   // A page takes a body only as a server action, and browsers always send those with a length.
-  // Without one, the framework would read on and answer a body over its limit with a 500; the JSON
-  // routes count what they read themselves and answer 413 (lib/server/operation.ts).
-  if (!api && !BODYLESS.has(request.method) && request.headers.has('transfer-encoding') && !request.headers.has('content-length')) {
+  // Without one, the framework would read on and answer a body over its limit with a 500.
+  if (!BODYLESS.has(request.method) && request.headers.has('transfer-encoding') && !request.headers.has('content-length')) {
     return refuse(411, 'length_required', 'A request to a page must say how long its body is (Content-Length).', csp);
   }
-  if (!api && pathname !== '/sign-in' && !ICON_FILES.test(pathname) && !request.cookies.has('pg_session')) {
+  if (pathname !== '/sign-in' && !ICON_FILES.test(pathname) && !request.cookies.has('pg_session')) {
     const url = request.nextUrl.clone();
     url.pathname = '/sign-in';
     url.search = '';
-    return secure(NextResponse.redirect(url), csp, false);
+    return secure(NextResponse.redirect(url), csp);
   }
   // The framework reads the nonce from the request's own CSP header and puts it on its scripts;
   // the root layout reads x-nonce for the theme script.
   const headers = new Headers(request.headers);
   headers.set('x-nonce', nonce);
   headers.set('Content-Security-Policy', csp);
-  return secure(NextResponse.next({ request: { headers } }), csp, api);
+  return secure(NextResponse.next({ request: { headers } }), csp);
 }
 
 export const config = {
-  // The build's static files and the (switched off) image optimizer carry their headers from
-  // next.config.ts; everything else passes here.
-  matcher: ['/((?!_next/static|_next/image).*)'],
+  // The build's static files, the (switched off) image optimizer and the JSON API carry their
+  // headers from next.config.ts, and scripts/http-guard.cjs refuses the API's unknown methods;
+  // everything else passes here.
+  matcher: ['/((?!_next/static|_next/image|api/).*)'],
 };

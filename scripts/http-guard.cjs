@@ -4,13 +4,16 @@
 // - CONNECT: Node hands it to a 'connect' listener (none) and would drop the connection;
 // - names Node's HTTP parser does not know (TRACK, BREW, FOO): Node would answer a bare 400;
 // - anything but GET and HEAD on the build's static files, which the proxy does not see and which
-//   Next.js answers with a 500.
+//   Next.js answers with a 500;
+// - on the JSON API (which the proxy does not see either), any method outside the app's list.
 const http = require('node:http');
 
 const REFUSED = new Set(['TRACE']);
 // The same list as proxy.ts.
 const ALLOW = 'GET, HEAD, POST, PUT, PATCH, DELETE, OPTIONS';
 const STATIC = /^\/_next\/(static\/|image(\?|$))/;
+const API = /^\/api(\/|\?|$)/;
+const ALLOWED = new Set(ALLOW.split(', '));
 const HEADERS = {
   'content-type': 'application/json',
   allow: ALLOW,
@@ -42,7 +45,7 @@ const emit = http.Server.prototype.emit;
 http.Server.prototype.emit = function guardedEmit(event, ...args) {
   if (event === 'request') {
     const [req, res] = args;
-    if (REFUSED.has(req.method)) {
+    if (REFUSED.has(req.method) || (API.test(req.url ?? '') && !ALLOWED.has(req.method))) {
       res.writeHead(405, HEADERS);
       res.end(refusal(req.method));
       return true;
