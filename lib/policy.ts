@@ -77,6 +77,17 @@ export const POLICY = {
   // ── Training: the bench, practice scenarios, attempts and the isolation check ──
 
   // ── Photos, the report as PDF, and e-mail ──
+  // The report as PDF: whoever may see the call (customer copy by default, ?version=office).
+  'reports.pdf': { roles: callWork },
+  // E-mailing the report is a technician's job and up: an apprentice's report goes out once a technician has it.
+  'reports.emailPreview': { roles: callSupervisors },
+  'reports.email': { roles: callSupervisors },
+  'mail.resend': { roles: callSupervisors },
+  // What the local SMTP sink caught (development and tests; empty with a real mail server).
+  'mail.mailbox': { roles: adminOnly },
+  // Each user's own e-mail notification settings.
+  'notifications.get': { roles: everyone },
+  'notifications.update': { roles: everyone },
 } as const satisfies Record<string, Access>;
 
 export type OperationName = keyof typeof POLICY;

@@ -445,7 +445,7 @@ function CustomerCopy({ report }: { report: CallReportOut }) {
                 <tr key={r.id} className="border-b border-line align-top print:break-inside-avoid">
                   <td className="py-1 pr-3">
                     {r.title}
-                    {r.afterRepair && <span className="font-semibold"> (after the repair)</span>}
+                    {r.afterRepair && !/after the repair/i.test(r.title) && <span className="font-semibold"> (after the repair)</span>}
                   </td>
                   <td className="whitespace-nowrap py-1 pr-3 font-mono font-semibold">{r.shown}</td>
                   <td className="py-1">

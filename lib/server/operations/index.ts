@@ -5,11 +5,17 @@ import * as auth from '@/lib/server/operations/auth';
 import * as company from '@/lib/server/operations/company';
 import * as diagnoses from '@/lib/server/operations/diagnoses';
 import * as field from '@/lib/server/operations/field';
+import * as mail from '@/lib/server/operations/mail';
 
 /** Every declared operation, by its policy name (tests check it against lib/policy.ts both ways). */
 export const OPERATIONS: ReadonlyMap<OperationName, Operation> = new Map(
-  ([...Object.values(auth), ...Object.values(company), ...Object.values(field), ...Object.values(diagnoses)] as Operation[]).map((op) => [
-    op.name,
-    op,
-  ]),
+  (
+    [
+      ...Object.values(auth),
+      ...Object.values(company),
+      ...Object.values(field),
+      ...Object.values(diagnoses),
+      ...Object.values(mail),
+    ] as Operation[]
+  ).map((op) => [op.name, op]),
 );

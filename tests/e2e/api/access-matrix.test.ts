@@ -136,10 +136,29 @@ const ROUTES: Record<OperationName, RouteCase> = {
   'diagnoses.escalations': { method: 'GET', path: () => '/api/escalations', rows: false },
   'trees.list': { method: 'GET', path: () => '/api/trees', rows: false },
   'treeVersions.get': { method: 'GET', path: (r) => `/api/tree-versions/${r.treeVersionId}`, rows: true },
+  'reports.pdf': { method: 'GET', path: (r) => `/api/calls/${r.callId}/report.pdf`, rows: true },
+  'reports.emailPreview': { method: 'GET', path: (r) => `/api/calls/${r.callId}/report-email`, rows: true },
+  'reports.email': {
+    method: 'POST',
+    path: (r) => `/api/calls/${r.callId}/report-email`,
+    body: () => ({ to: ['matrix@demo.test'], subject: 'Matrix report', body: 'Matrix', idempotencyKey: randomUUID() }),
+    rows: true,
+  },
+  // Each matrix call has a sent e-mail whose id is the call's own (made below), so the row decides.
+  'mail.resend': {
+    method: 'POST',
+    path: (r) => `/api/outbox/${r.callId}/resend`,
+    body: () => ({ idempotencyKey: randomUUID() }),
+    rows: true,
+  },
+  'mail.mailbox': { method: 'GET', path: () => '/api/dev/mailbox', rows: false },
+  'notifications.get': { method: 'GET', path: () => '/api/me/notifications', rows: false },
+  'notifications.update': { method: 'PUT', path: () => '/api/me/notifications', body: () => ({}), rows: false },
 };
 
 // The calls and diagnoses a reach covers: the whole company, one's own, or (supervised) one's own and apprentices'.
-const CALL_ROWS = /^(calls\.(get|recordRepair|close|reopen|assign)|diagnoses\.(start|get|answer|undo|signOff|escalate))$/;
+const CALL_ROWS =
+  /^(calls\.(get|recordRepair|close|reopen|assign)|diagnoses\.(start|get|answer|undo|signOff|escalate)|reports\.(pdf|emailPreview|email)|mail\.resend)$/;
 
 interface Identity {
   label: string;
@@ -202,6 +221,28 @@ beforeAll(async () => {
     const own = identity.email ? await callOf(identity.email) : oursElse;
     if (identity.company === 'ours') rowsFor.set(identity.label, { own, company: oursElse, other: theirsTech });
     else rowsFor.set(identity.label, { own, company: identity.email === DEMO.otherAdmin ? theirsTech : theirsElse, other: oursElse });
+  }
+});
+
+// A sent e-mail on every matrix call, with the call's id, for mail.resend to name.
+beforeAll(async () => {
+  const calls = new Set([...rowsFor.values()].flatMap((v) => [v.own.callId, v.company.callId, v.other.callId]));
+  for (const id of calls) {
+    const call = await db('service_calls').where({ id }).first('company_id');
+    await db('outbox')
+      .insert({
+        id,
+        company_id: call.company_id,
+        call_id: id,
+        kind: 'report',
+        idempotency_key: `matrix:${id}`,
+        recipients: JSON.stringify(['matrix@demo.test']),
+        subject: 'Matrix report',
+        body: 'Matrix',
+        status: 'sent',
+      })
+      .onConflict('id')
+      .ignore();
   }
 });
 

@@ -11,7 +11,18 @@ import { afterAll, beforeAll, describe, expect, it } from 'vitest';
 import { ApiClient, DEMO, signedIn } from '../support/http';
 
 const RUNS = Number(process.env.HOSTILE_RUNS ?? 200);
-const TABLES = ['companies', 'users', 'sites', 'units', 'service_calls', 'diagnoses', 'answers', 'call_events'];
+const TABLES = [
+  'companies',
+  'users',
+  'sites',
+  'units',
+  'service_calls',
+  'diagnoses',
+  'answers',
+  'call_events',
+  'outbox',
+  'notification_settings',
+];
 
 let db: Knex;
 let admin: ApiClient;
@@ -63,6 +74,24 @@ beforeAll(async () => {
   });
 });
 
+// A sent e-mail on the hostile call, for the resend route.
+beforeAll(async () => {
+  const call = await db('service_calls').where({ id: ids.call }).first('company_id');
+  const [row] = await db('outbox')
+    .insert({
+      company_id: call.company_id,
+      call_id: ids.call,
+      kind: 'report',
+      idempotency_key: `hostile:${ids.call}`,
+      recipients: JSON.stringify(['hostile@demo.test']),
+      subject: 'Hostile report',
+      body: 'Hostile',
+      status: 'sent',
+    })
+    .returning('id');
+  ids.outbox = row.id;
+});
+
 afterAll(async () => {
   // A hostile body that happens to be valid changes the company (a random name): put it back for
   // the tests that read the demo company's name.
@@ -75,6 +104,8 @@ afterAll(async () => {
     const { id, ...row } = technicianBefore;
     await db('users').where({ id }).update(row);
   }
+  // A valid body may turn one of the technician's notifications off: back to none off, as seeded.
+  if (ids.user) await db('notification_settings').where({ user_id: ids.user }).del();
   await db.destroy();
 });
 
@@ -219,6 +250,24 @@ const TARGETS: Record<string, Target> = {
     path: () => `/api/calls/${ids.call}/assign`,
     client: () => admin,
     valid: () => ({ technicianId: ids.user }),
+  },
+  'POST /api/calls/{id}/report-email': {
+    method: 'POST',
+    path: () => `/api/calls/${ids.call}/report-email`,
+    client: () => tech,
+    valid: () => ({ to: ['customer@demo.test'], subject: 'Service report', body: 'Attached.', idempotencyKey: randomUUID() }),
+  },
+  'POST /api/outbox/{id}/resend': {
+    method: 'POST',
+    path: () => `/api/outbox/${ids.outbox}/resend`,
+    client: () => tech,
+    valid: () => ({ idempotencyKey: randomUUID() }),
+  },
+  'PUT /api/me/notifications': {
+    method: 'PUT',
+    path: () => '/api/me/notifications',
+    client: () => tech,
+    valid: () => ({ 'sign-off': true, escalation: true, 'tree-review': true, scenario: true }),
   },
   // After the answers: an escalation that gets through ends the diagnosis (later ones are 409s).
   'POST /api/diagnoses/{id}/escalate': {

@@ -1,13 +1,18 @@
 import clsx from 'clsx';
 import type { Metadata } from 'next';
 import Link from 'next/link';
+import { resendMailAction, sendReportEmailAction } from '@/app/(app)/calls/[id]/report/actions';
+import { ReportEmailPanel } from '@/components/mail/report-email-panel';
 import { PrintButton } from '@/components/report/print-button';
 import { ServiceReport } from '@/components/report/service-report';
 import { BackLink } from '@/components/ui/back-link';
 import type { ReportVersion } from '@/lib/pdf/report-model';
+import { may } from '@/lib/policy';
 import { getCallReport } from '@/lib/server/calls';
 import { orNotFound, pageScope } from '@/lib/server/operation';
+import { previewReportEmail } from '@/lib/server/outbox';
 import { callReportSchema } from '@/lib/validations/api';
+import { reportEmailPreviewSchema } from '@/lib/validations/mail';
 
 export const metadata: Metadata = { title: 'Service report' };
 export const dynamic = 'force-dynamic';
@@ -24,10 +29,13 @@ export default async function ReportPage({
   params: Promise<{ id: string }>;
   searchParams: Promise<Record<string, string | string[] | undefined>>;
 }) {
-  const { scope } = await pageScope('calls.get');
+  const { user, scope } = await pageScope('calls.get');
   const { id } = await params;
   const version: ReportVersion = (await searchParams).version === 'customer' ? 'customer' : 'office';
   const report = callReportSchema.parse(await orNotFound(getCallReport({ scope, id })));
+  const emailPreview = may(user.role, 'reports.emailPreview')
+    ? reportEmailPreviewSchema.parse(await previewReportEmail({ scope: (await pageScope('reports.emailPreview')).scope, id }))
+    : null;
   return (
     <div className="space-y-4">
       <div className="no-print flex flex-wrap items-center justify-between gap-3">
@@ -51,6 +59,7 @@ export default async function ReportPage({
           </Link>
         ))}
       </nav>
+      {emailPreview && <ReportEmailPanel callId={id} initial={emailPreview} sendReport={sendReportEmailAction} resend={resendMailAction} />}
       <ServiceReport report={report} version={version} />
     </div>
   );

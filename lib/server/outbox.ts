@@ -1,0 +1,215 @@
+import 'server-only';
+import { readdir, readFile, stat } from 'node:fs/promises';
+import path from 'node:path';
+import type { Knex } from 'knex';
+import { getCall } from '@/db/calls';
+import {
+  claimDueMessages,
+  enqueueMessage,
+  getAttachment,
+  getMessage,
+  listMessagesForCall,
+  markAttemptFailed,
+  markSent,
+  type EnqueueInput,
+} from '@/db/outbox';
+import { AppError } from '@/lib/errors';
+import { parseEml } from '@/lib/mail/eml';
+import { composeReportEmail } from '@/lib/mail/report-email';
+import { createMailTransport, mailConfig, sendMail } from '@/lib/mail/transport';
+import { createOutboxWorker, type OutboxWorker } from '@/lib/mail/worker';
+import { renderReportPdf } from '@/lib/pdf/render';
+import { reportFileName } from '@/lib/pdf/report-model';
+import type { Scope } from '@/lib/policy';
+import { getCallReport } from '@/lib/server/calls';
+import { callReportSchema } from '@/lib/validations/api';
+import type { ReportEmailInput } from '@/lib/validations/mail';
+
+// The app's one outbox worker, started by instrumentation.ts when the server starts, kept on
+// globalThis so that a dev reload does not start a second one. Everything that sends mail goes
+// through `queueMail`: the row is written first, then the worker is woken.
+
+const globalForOutbox = globalThis as unknown as { provingGroundOutbox?: OutboxWorker };
+
+function numberFromEnv(name: string, fallback: number): number {
+  const n = Number(process.env[name]);
+  return Number.isFinite(n) && n >= 0 ? n : fallback;
+}
+
+export function outboxWorker(): OutboxWorker {
+  if (!globalForOutbox.provingGroundOutbox) {
+    const config = mailConfig();
+    const transport = createMailTransport(config);
+    globalForOutbox.provingGroundOutbox = createOutboxWorker({
+      store: {
+        claim: () => claimDueMessages({ limit: 5 }),
+        sent: (id, messageId) => markSent({ id, messageId }),
+        failed: (id, error, retryInMs) => markAttemptFailed({ id, error, retryInMs }),
+      },
+      send: (d) =>
+        sendMail(transport, config.from, {
+          id: d.id,
+          to: d.recipients,
+          subject: d.subject,
+          text: d.body,
+          attachment:
+            d.attachment && d.attachmentName ? { name: d.attachmentName, content: d.attachment, contentType: 'application/pdf' } : null,
+        }),
+      intervalMs: numberFromEnv('MAIL_WORKER_INTERVAL_MS', 5000),
+      retryBaseMs: numberFromEnv('MAIL_RETRY_BASE_MS', 30_000),
+      log: (message) => console.warn(message),
+    });
+  }
+  return globalForOutbox.provingGroundOutbox;
+}
+
+export function startOutboxWorker(): void {
+  if (process.env.OUTBOX_WORKER === 'off') return;
+  outboxWorker().start();
+}
+
+/** Queues a message (once per idempotency key) and wakes the worker once the caller's transaction is done. */
+export async function queueMail(input: EnqueueInput, trx?: Knex) {
+  const result = await enqueueMessage(input, trx);
+  if (!trx && outboxWorker().started) outboxWorker().wake();
+  return result;
+}
+
+/** Wakes the worker after a transaction that queued mail has committed. */
+export function wakeOutbox(): void {
+  if (outboxWorker().started) outboxWorker().wake();
+}
+
+// ── The report by e-mail ────────────────────────────────────────────────────────────────────────
+
+async function reportOf(scope: Scope, id: string) {
+  return callReportSchema.parse(await getCallReport({ scope, id }));
+}
+
+/** The report as a PDF, customer copy or office record. */
+export async function reportPdf({ scope, id, version }: { scope: Scope; id: string; version: 'customer' | 'office' }) {
+  const report = await reportOf(scope, id);
+  return { filename: reportFileName(report, version), pdf: await renderReportPdf({ report, version }) };
+}
+
+/** What the send form starts from: the recipients, subject and message, and the call's earlier e-mails. */
+export async function previewReportEmail({ scope, id }: { scope: Scope; id: string }) {
+  const report = await reportOf(scope, id);
+  const draft = composeReportEmail(report);
+  const messages = await listMessagesForCall({ companyId: scope.companyId, callId: id });
+  return {
+    ...draft,
+    attachmentName: reportFileName(report, 'customer'),
+    customerEmail: report.site.contactEmail,
+    officeEmail: report.company.officeEmail,
+    messages,
+  };
+}
+
+/**
+ * Queues the customer copy of the report to the recipients given. The PDF is rendered now, so the
+ * message carries the report as it stood when it was sent. The same idempotency key twice queues
+ * one message.
+ */
+export async function sendReportEmail({ scope, id, input }: { scope: Scope; id: string; input: ReportEmailInput }) {
+  const report = await reportOf(scope, id);
+  const pdf = await renderReportPdf({ report, version: 'customer' });
+  return queueMail({
+    companyId: scope.companyId,
+    callId: id,
+    kind: 'report',
+    idempotencyKey: `report:${input.idempotencyKey}`,
+    recipients: input.to,
+    subject: input.subject,
+    body: input.body,
+    attachment: { name: reportFileName(report, 'customer'), content: pdf },
+    createdBy: scope.userId,
+  });
+}
+
+/** Sends a stored message again as a new one (a failed send, or a customer who lost it). */
+export async function resendMessage({ scope, id, idempotencyKey }: { scope: Scope; id: string; idempotencyKey: string }) {
+  const message = await getMessage({ companyId: scope.companyId, id });
+  // Only messages of a call are resent from its page, by someone who reaches the call.
+  if (!message || !message.callId) throw new AppError('not_found', 'That e-mail was not found.');
+  await getCall({ scope, id: message.callId });
+  if (message.status === 'queued' || message.status === 'sending') {
+    throw new AppError('conflict', 'That e-mail is still waiting to be sent; it is retried by itself.');
+  }
+  const attachment = await getAttachment({ companyId: scope.companyId, id });
+  return queueMail({
+    companyId: scope.companyId,
+    callId: message.callId,
+    kind: message.kind,
+    idempotencyKey: `resend:${idempotencyKey}`,
+    recipients: message.recipients,
+    subject: message.subject,
+    body: message.body,
+    attachment: attachment && message.attachmentName ? { name: message.attachmentName, content: attachment } : null,
+    createdBy: scope.userId,
+  });
+}
+
+// ── The dev mailbox: what the local SMTP sink caught ────────────────────────────────────────────
+
+const MAILBOX_LIMIT = 50;
+const EML_NAME = /^[A-Za-z0-9][A-Za-z0-9._-]{0,200}\.eml$/;
+
+function sinkDir(): string | null {
+  return process.env.MAIL_SINK_DIR || null;
+}
+
+/** The newest messages in MAIL_SINK_DIR; `enabled: false` where no local sink is configured (a real mail server). */
+export async function readMailbox() {
+  const dir = sinkDir();
+  if (!dir) return { enabled: false, messages: [] };
+  let names: string[];
+  try {
+    names = (await readdir(dir)).filter((n) => EML_NAME.test(n));
+  } catch {
+    return { enabled: true, messages: [] };
+  }
+  const files = await Promise.all(
+    names.map(async (name) => {
+      const info = await stat(path.join(dir, name)).catch(() => null);
+      return info ? { name, mtime: info.mtimeMs, size: info.size } : null;
+    }),
+  );
+  const newest = files
+    .filter((f): f is { name: string; mtime: number; size: number } => f !== null)
+    .sort((a, b) => b.mtime - a.mtime)
+    .slice(0, MAILBOX_LIMIT);
+  const messages = [];
+  for (const f of newest) {
+    const raw = await readFile(path.join(dir, f.name)).catch(() => null);
+    if (!raw) continue;
+    const eml = parseEml(raw);
+    messages.push({
+      name: f.name,
+      subject: eml.subject,
+      from: eml.from,
+      to: eml.to,
+      date: eml.date,
+      size: f.size,
+      text: eml.text.slice(0, 20_000),
+      attachments: eml.attachments.map((a, index) => ({
+        index,
+        filename: a.filename ?? `part-${index}`,
+        contentType: a.contentType,
+        size: a.content.length,
+      })),
+    });
+  }
+  return { enabled: true, messages };
+}
+
+/** One attachment of a caught message, for download. */
+export async function readMailboxAttachment({ name, index }: { name: string; index: number }) {
+  const dir = sinkDir();
+  if (!dir || !EML_NAME.test(name)) throw new AppError('not_found', 'That message was not found.');
+  const raw = await readFile(path.join(dir, name)).catch(() => null);
+  if (!raw) throw new AppError('not_found', 'That message was not found.');
+  const part = parseEml(raw).attachments[index];
+  if (!part) throw new AppError('not_found', 'That attachment was not found.');
+  return { filename: part.filename ?? `part-${index}`, contentType: part.contentType, content: part.content };
+}

@@ -1,0 +1,166 @@
+import type { CallReportOut } from '@/lib/validations/api';
+
+// A service report as getCallReport makes it, for the report's components, PDF and e-mail tests.
+// The company, site, people and the visit are invented (demo data); the bands follow the default tree.
+
+const at = (minute: number) => new Date(Date.UTC(2026, 11, 2, 14, minute)).toISOString();
+
+const answer = (
+  seq: number,
+  stepId: string,
+  stepTitle: string,
+  extra: Partial<CallReportOut['diagnoses'][number]['steps'][number]> = {},
+): CallReportOut['diagnoses'][number]['steps'][number] => ({
+  id: `00000000-0000-4000-8000-${String(seq).padStart(12, '0')}`,
+  clientId: `client-${seq}`,
+  seq,
+  stepId,
+  stepTitle,
+  kind: 'measure',
+  text: null,
+  value: null,
+  unit: null,
+  quantity: null,
+  band: null,
+  bandIndex: null,
+  verdict: null,
+  choice: null,
+  choiceLabel: null,
+  confirmed: null,
+  overRange: false,
+  auto: false,
+  at: at(seq),
+  instruction: '',
+  points: null,
+  checklist: [],
+  procedure: null,
+  ...extra,
+});
+
+const LOCK_OUT = ['Power off at the disconnect', 'Lock and tag applied', 'Absence of voltage verified at the unit'];
+
+export function reportFixture(): CallReportOut {
+  return {
+    company: { name: 'Harrow Creek Heating', officeEmail: 'office@harrow-creek.demo.test', timeZone: 'America/Toronto' },
+    call: {
+      id: '11111111-1111-4111-8111-111111111111',
+      unitId: '22222222-2222-4222-8222-222222222222',
+      unitLabel: 'Basement furnace',
+      siteId: '33333333-3333-4333-8333-333333333333',
+      siteName: 'Lindqvist residence',
+      siteAddress: '14 Alder Lane',
+      complaint: 'No heat; the burners light and go out after a few seconds.',
+      status: 'closed',
+      technicianId: '44444444-4444-4444-8444-444444444444',
+      technicianName: 'Rosa Imbert',
+      technicianRole: 'technician',
+      repairNotes: null,
+      verification: null,
+      openedAt: at(0),
+      closedAt: at(55),
+      closedByName: 'Rosa Imbert',
+    },
+    unit: {
+      label: 'Basement furnace',
+      ignition: 'two-rod',
+      fuel: 'natural-gas',
+      controlSupply: '24v',
+      draft: 'induced',
+      transformerVa: 40,
+      installYear: 2011,
+    },
+    site: {
+      id: '33333333-3333-4333-8333-333333333333',
+      name: 'Lindqvist residence',
+      address: '14 Alder Lane',
+      contactEmail: 'e.lindqvist@example.test',
+    } as CallReportOut['site'],
+    diagnoses: [
+      {
+        id: '55555555-5555-4555-8555-555555555555',
+        status: 'verified',
+        treeTitle: 'No heat, DSI',
+        treeVersion: 2,
+        startedBy: 'Rosa Imbert',
+        startedByRole: 'technician',
+        startedAt: at(1),
+        signedOff: null,
+        finding: { title: 'Dirty or oxidized flame rod' },
+        findingDetail: {
+          id: 'f-dirty-rod',
+          kind: 'finding',
+          title: 'Dirty or oxidized flame rod',
+          explanation: 'The flame rod is coated, so too little current flows through the flame for the control to prove it.',
+          remedy: 'Cleaned the flame rod with fine abrasive pad and checked its ground path.',
+          parts: [],
+          verification: ['Flame signal 2 µA or more', 'Three full heat cycles'],
+          tags: [],
+          cautions: [{ signal: 'WARNING', text: 'Have the appliance serviced each year. Follow local codes.' }],
+          energy: { electric: 'off', gas: 'any' },
+          handles: ['electric'],
+        } as unknown as CallReportOut['diagnoses'][number]['findingDetail'],
+        contradictions: [],
+        steps: [
+          answer(1, 'line-voltage', 'Line voltage at the unit', {
+            text: '119.6',
+            value: 119.6,
+            unit: 'VAC',
+            quantity: 'vac',
+            band: 'Normal line voltage',
+            verdict: 'within',
+            points: ['L1', 'N'],
+          }),
+          answer(2, 'flame-signal', 'Flame signal (DC microamps)', {
+            text: '0.6',
+            value: 0.6,
+            unit: 'µA',
+            quantity: 'udc',
+            band: 'Low flame signal',
+            verdict: 'below',
+            points: ['flame rod lead', 'control FS terminal'],
+          }),
+          answer(3, 'lock-out--rod-inspect', 'Lock out the power and verify', {
+            kind: 'action',
+            confirmed: true,
+            procedure: 'lock-out',
+            checklist: LOCK_OUT,
+          }),
+          answer(4, 'rod-inspect', 'Inspect the flame rod', { kind: 'inspect', choice: 'coated', choiceLabel: 'Coated or discoloured' }),
+          answer(5, 'lock-out--rod-ground', 'Lock out the power and verify', {
+            kind: 'action',
+            confirmed: true,
+            procedure: 'lock-out',
+            checklist: LOCK_OUT,
+          }),
+          answer(6, 'recheck--flame-signal--f-dirty-rod', 'Flame signal (DC microamps) after the repair', {
+            text: '4.2',
+            value: 4.2,
+            unit: 'µA',
+            quantity: 'udc',
+            band: 'Good flame signal',
+            verdict: 'within',
+            points: ['flame rod lead', 'control FS terminal'],
+          }),
+          answer(7, 'verify--cycles--f-dirty-rod', 'Three full heat cycles', { kind: 'action', confirmed: true }),
+        ],
+      },
+    ],
+    cautions: [
+      { signal: 'DANGER', text: 'Line voltage inside the cabinet. Follow local codes.' },
+      { signal: 'WARNING', text: 'Have the appliance serviced each year. Follow local codes.' },
+    ],
+    reasons: [],
+    events: [
+      {
+        id: '66666666-6666-4666-8666-666666666666',
+        kind: 'closed',
+        at: at(55),
+        actorName: 'Rosa Imbert',
+        note: null,
+        fromName: null,
+        toName: null,
+      },
+    ],
+    photos: [],
+  };
+}

@@ -1,0 +1,49 @@
+import { SMTPServer } from 'smtp-server';
+
+// An SMTP sink on loopback for the mail tests: it accepts every message and keeps its raw bytes.
+// Stop and start it again on the same port to play a mail server that went down and came back.
+
+export interface Sink {
+  port: number;
+  messages: Buffer[];
+  stop(): Promise<void>;
+  start(): Promise<void>;
+}
+
+export async function startSink(port = 0): Promise<Sink> {
+  const messages: Buffer[] = [];
+  let server: SMTPServer | null = null;
+  const sink: Sink = {
+    port,
+    messages,
+    async start() {
+      server = new SMTPServer({
+        authOptional: true,
+        disabledCommands: ['STARTTLS'],
+        logger: false,
+        onData(stream, _session, callback) {
+          const chunks: Buffer[] = [];
+          stream.on('data', (c: Buffer) => chunks.push(c));
+          stream.on('end', () => {
+            messages.push(Buffer.concat(chunks));
+            callback();
+          });
+        },
+      });
+      await new Promise<void>((resolve, reject) => {
+        server!.once('error', reject);
+        server!.listen(sink.port, '127.0.0.1', () => resolve());
+      });
+      const address = (server as unknown as { server: { address(): { port: number } } }).server.address();
+      sink.port = address.port;
+    },
+    async stop() {
+      if (!server) return;
+      const s = server;
+      server = null;
+      await new Promise<void>((resolve) => s.close(() => resolve()));
+    },
+  };
+  await sink.start();
+  return sink;
+}
