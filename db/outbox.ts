@@ -152,7 +152,10 @@ export async function listMessagesForCall({ companyId, callId }: { companyId: st
  * Takes up to `limit` due messages for sending: queued ones whose time has come, and ones a
  * crashed or stuck pass claimed whose lease ran out. Each claim counts as an attempt.
  */
-export async function claimDueMessages({ limit = 5, leaseSeconds = 120 }: { limit?: number; leaseSeconds?: number } = {}, trx: Knex = db) {
+export async function claimDueMessages(
+  { limit = 5, leaseSeconds = 120 }: { limit?: number; leaseSeconds?: number } = {},
+  trx: Knex = db,
+): Promise<OutboxDelivery[]> {
   const { rows } = await trx.raw(
     `UPDATE outbox SET status = 'sending', attempts = attempts + 1,
             locked_until = clock_timestamp() + make_interval(secs => ?), updated_at = clock_timestamp()

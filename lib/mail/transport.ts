@@ -16,7 +16,7 @@ export interface MailConfig {
   from: string;
 }
 
-export function mailConfig(env: NodeJS.ProcessEnv = process.env): MailConfig {
+export function mailConfig(env: Record<string, string | undefined> = process.env): MailConfig {
   return {
     host: env.SMTP_HOST || '127.0.0.1',
     port: Number(env.SMTP_PORT) || 2525,

@@ -1,3 +1,4 @@
+import { Buffer } from 'node:buffer';
 import { SMTPServer } from 'smtp-server';
 
 // An SMTP sink on loopback for the mail tests: it accepts every message and keeps its raw bytes.
@@ -22,8 +23,8 @@ export async function startSink(port = 0): Promise<Sink> {
         disabledCommands: ['STARTTLS'],
         logger: false,
         onData(stream, _session, callback) {
-          const chunks: Buffer[] = [];
-          stream.on('data', (c: Buffer) => chunks.push(c));
+          const chunks: Uint8Array[] = [];
+          stream.on('data', (c: Uint8Array) => chunks.push(c));
           stream.on('end', () => {
             messages.push(Buffer.concat(chunks));
             callback();

@@ -1,10 +1,11 @@
 // @vitest-environment node
+import { Buffer } from 'node:buffer';
 import nodemailer from 'nodemailer';
 import { decodeWords, parseEml } from '@/lib/mail/eml';
 
 // The dev mailbox's reader against messages nodemailer itself builds (its stream transport makes
 // the same RFC 5322 bytes the SMTP transport sends), so the reference is the library, not us.
-async function build(options: nodemailer.SendMailOptions): Promise<Buffer> {
+async function build(options: Parameters<ReturnType<typeof nodemailer.createTransport>['sendMail']>[0]): Promise<Buffer> {
   const transport = nodemailer.createTransport({ streamTransport: true, buffer: true, newline: 'windows' });
   const info = await transport.sendMail({ from: 'Proving Ground <no-reply@demo.test>', ...options });
   return info.message as Buffer;
@@ -12,7 +13,7 @@ async function build(options: nodemailer.SendMailOptions): Promise<Buffer> {
 
 describe('parseEml', () => {
   it('reads the subject, addresses, text and a binary attachment byte for byte', async () => {
-    const pdf = Buffer.concat([Buffer.from('%PDF-1.3\n'), Buffer.from(Array.from({ length: 3000 }, (_, i) => i % 256))]);
+    const pdf = Buffer.from(new Uint8Array([...Buffer.from('%PDF-1.3\n'), ...Array.from({ length: 3000 }, (_, i) => i % 256)]));
     const raw = await build({
       to: ['a@demo.test', 'b@demo.test'],
       subject: 'Service report: Café Süd, Basement furnace',
@@ -27,7 +28,7 @@ describe('parseEml', () => {
     expect(eml.attachments).toHaveLength(1);
     expect(eml.attachments[0].filename).toBe('service-report-Cafe-Sud-2026-12-02.pdf');
     expect(eml.attachments[0].contentType).toBe('application/pdf');
-    expect(eml.attachments[0].content.equals(pdf)).toBe(true);
+    expect(eml.attachments[0].content.toString('hex')).toBe(pdf.toString('hex'));
   });
 
   it('reads a plain message without parts', async () => {

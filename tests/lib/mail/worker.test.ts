@@ -1,4 +1,5 @@
 // @vitest-environment node
+import { Buffer } from 'node:buffer';
 import { parseEml } from '@/lib/mail/eml';
 import { createMailTransport, mailConfig, sendMail } from '@/lib/mail/transport';
 import { createOutboxWorker, failureReason, retryDelayMs, type Delivery, type OutboxStore } from '@/lib/mail/worker';
@@ -91,7 +92,7 @@ describe('outbox worker', () => {
     expect(eml.to).toBe('customer@demo.test, office@demo.test');
     expect(eml.headers['message-id']).toBe('<a1@proving-ground.outbox>');
     expect(eml.attachments.map((a) => [a.filename, a.contentType])).toEqual([['service-report.pdf', 'application/pdf']]);
-    expect(eml.attachments[0].content.equals(pdf)).toBe(true);
+    expect(eml.attachments[0].content.toString('hex')).toBe(pdf.toString('hex'));
   });
 
   it('retries with backoff while the server is down and delivers exactly once when it is back', async () => {

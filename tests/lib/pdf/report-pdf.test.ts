@@ -1,4 +1,5 @@
 // @vitest-environment node
+import { Buffer } from 'node:buffer';
 import { spawnSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
@@ -20,7 +21,7 @@ const report = callReportSchema.parse(reportFixture());
 
 function read(pdf: Buffer, name: string) {
   const file = path.join(dir, name);
-  writeFileSync(file, pdf);
+  writeFileSync(file, new Uint8Array(pdf));
   const text = spawnSync('pdftotext', ['-layout', file, '-'], { encoding: 'utf8' }).stdout;
   const info = spawnSync('pdfinfo', [file], { encoding: 'utf8' }).stdout;
   const fonts = spawnSync('pdffonts', [file], { encoding: 'utf8' }).stdout;
