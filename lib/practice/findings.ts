@@ -48,3 +48,11 @@ export function readingsToFinding(graph: Pick<TreeGraph, 'steps' | 'start'>, fin
   }
   return null;
 }
+
+/** The findings that carry every one of `tags`: those that isolate a bench fault with these expected tags. */
+export function findingsWithTags(graph: Pick<TreeGraph, 'steps'>, tags: readonly string[]): FindingChoice[] {
+  if (tags.length === 0) return [];
+  return graph.steps
+    .filter((s) => s.kind === 'finding' && tags.every((t) => s.tags.includes(t)))
+    .map((s) => ({ id: s.id, title: s.title }));
+}

@@ -37,9 +37,9 @@ export interface Score {
 
 export interface ScoringInput {
   events: readonly PracticeEvent[];
-  /** The finding the apprentice chose and the one the injected fault leads to. */
+  /** The finding the apprentice chose, and the findings that isolate the injected fault (any of them is right). */
   chosenFinding: { id: string; title: string };
-  expectedFinding: { id: string; title: string };
+  expectedFindings: readonly { id: string; title: string }[];
   /** Measurements and observations on the shortest path that isolates the fault (the default tree's walk). */
   shortest: number;
   /** Wall-clock seconds from the start of the attempt to the finding. */
@@ -143,15 +143,16 @@ function plural(n: number, one: string, many = `${one}s`) {
 
 export function scoreAttempt(input: ScoringInput): Score {
   const lines: ScoreLine[] = [];
-  const right = input.chosenFinding.id === input.expectedFinding.id;
+  const right = input.expectedFindings.some((f) => f.id === input.chosenFinding.id);
+  const expectedTitles = input.expectedFindings.map((f) => `“${f.title}”`).join(' or ') || 'a finding of the fault';
   lines.push({
     key: 'finding',
     label: 'The finding',
     points: right ? SCORING.finding : 0,
     max: SCORING.finding,
     detail: right
-      ? `“${input.chosenFinding.title}” is the fault that was injected.`
-      : `“${input.chosenFinding.title}” was chosen; the injected fault was “${input.expectedFinding.title}”.`,
+      ? `“${input.chosenFinding.title}” isolates the fault that was injected.`
+      : `“${input.chosenFinding.title}” was chosen; the injected fault leads to ${expectedTitles}.`,
   });
 
   const measurements = input.events.filter(isReading).length;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from 'vitest';
-import { findingChoices, readingsToFinding } from '@/lib/practice/findings';
+import { findingChoices, findingsWithTags, readingsToFinding } from '@/lib/practice/findings';
 import { DEFAULT_TREE_GRAPH } from '@/lib/trees/default-tree';
 import type { TreeGraph } from '@/lib/trees/schema';
 
@@ -40,9 +40,9 @@ const graph = {
         { from: 1, outcome: 'f-a' },
       ],
     },
-    { id: 'f-a', kind: 'finding', title: 'A' },
-    { id: 'f-b', kind: 'finding', title: 'B' },
-    { id: 'f-c', kind: 'finding', title: 'C' },
+    { id: 'f-a', kind: 'finding', title: 'A', tags: ['power', 'a'] },
+    { id: 'f-b', kind: 'finding', title: 'B', tags: ['power', 'b'] },
+    { id: 'f-c', kind: 'finding', title: 'C', tags: [] },
   ],
 } as unknown as TreeGraph;
 
@@ -77,5 +77,14 @@ describe('findingChoices', () => {
       { id: 'f-b', title: 'B' },
       { id: 'f-c', title: 'C' },
     ]);
+  });
+});
+
+describe('findingsWithTags', () => {
+  it('keeps the findings that carry every tag, none for no tags', () => {
+    expect(findingsWithTags(graph, ['power']).map((f) => f.id)).toEqual(['f-a', 'f-b']);
+    expect(findingsWithTags(graph, ['power', 'b']).map((f) => f.id)).toEqual(['f-b']);
+    expect(findingsWithTags(graph, ['power', 'c'])).toEqual([]);
+    expect(findingsWithTags(graph, [])).toEqual([]);
   });
 });

@@ -83,7 +83,7 @@ describe('safety lapses', () => {
 
 describe('scoreAttempt', () => {
   it('gives full marks to the right finding on the shortest path, safely, in time', () => {
-    const score = scoreAttempt({ events: safeSeries, chosenFinding: right, expectedFinding: right, shortest: 2, seconds: 300 });
+    const score = scoreAttempt({ events: safeSeries, chosenFinding: right, expectedFindings: [right], shortest: 2, seconds: 300 });
     expect(score.total).toBe(100);
     expect(score.max).toBe(100);
     expect(score.lines.map((l) => l.key)).toEqual(['finding', 'path', 'safety', 'time']);
@@ -99,7 +99,7 @@ describe('scoreAttempt', () => {
       { kind: 'measure', time: 30, mode: 'udc', series: 'flame-rod-lead', value: 0.6 },
       { kind: 'action', time: 40, action: 'reset-rollout' },
     ];
-    const score = scoreAttempt({ events, chosenFinding: wrong, expectedFinding: right, shortest: 2, seconds: 20 * 60 });
+    const score = scoreAttempt({ events, chosenFinding: wrong, expectedFindings: [right], shortest: 2, seconds: 20 * 60 });
     const byKey = Object.fromEntries(score.lines.map((l) => [l.key, l]));
     expect(byKey.finding.points).toBe(0);
     expect(byKey.finding.detail).toContain('Dirty flame rod');
@@ -113,9 +113,16 @@ describe('scoreAttempt', () => {
     expect(score.total).toBe(0 + 16 + 0 + 5);
   });
 
+  it('counts any of the findings that isolate the fault as right', () => {
+    const score = scoreAttempt({ events: [], chosenFinding: wrong, expectedFindings: [right, wrong], shortest: 0, seconds: 60 });
+    expect(score.lines[0].points).toBe(SCORING.finding);
+    const none = scoreAttempt({ events: [], chosenFinding: wrong, expectedFindings: [], shortest: 0, seconds: 60 });
+    expect(none.lines[0].points).toBe(0);
+  });
+
   it('never goes below zero on a line', () => {
     const many: PracticeEvent[] = Array.from({ length: 40 }, (_, i) => ({ kind: 'observe', time: i, what: 'flame', result: 'none' }));
-    const score = scoreAttempt({ events: many, chosenFinding: right, expectedFinding: right, shortest: 3, seconds: 3600 });
+    const score = scoreAttempt({ events: many, chosenFinding: right, expectedFindings: [right], shortest: 3, seconds: 3600 });
     expect(score.lines.find((l) => l.key === 'path')?.points).toBe(0);
     expect(score.lines.find((l) => l.key === 'time')?.points).toBe(0);
     expect(score.total).toBe(SCORING.finding + SCORING.safety);
