@@ -12,8 +12,9 @@ export type PracticeEvent =
       seconds?: number;
     }
   | { kind: 'measure'; time: number; mode: 'vac' | 'vdc' | 'ohm'; a: string; b: string; value: number | null }
+  | { kind: 'measure'; time: number; mode: 'ohm'; lead: string; value: number | null }
   | { kind: 'measure'; time: number; mode: 'udc'; series: string; value: number | null }
-  | { kind: 'observe'; time: number; what: 'spark' | 'flame'; result: string };
+  | { kind: 'observe'; time: number; what: string; result: string };
 
 export interface ScoreLine {
   key: 'finding' | 'path' | 'safety' | 'time';
@@ -65,12 +66,14 @@ export const SCORING = {
 const LINE_POINTS = new Set(['line-hot', 'line-neutral', 'line-ground', 'chassis']);
 /** Parts an ohmmeter reaches only by handling a rod or lead. */
 const ROD_POINTS = new Set(['spark-rod', 'flame-rod', 'ground-lead']);
+/** Looks at the rods, leads and burner: they are taken out or handled for it. */
+const HANDLING_LOOKS = new Set(['spark-lead', 'arcing', 'spark-rod', 'flame-rod', 'burner-surface', 'carry-over']);
 
 const isReading = (e: PracticeEvent) => e.kind === 'measure' || e.kind === 'observe';
 
 /** Did the meter, power off, show the line side dead? The bench model answers near 0 V then. */
 function verifiesDead(e: PracticeEvent, powered: boolean): boolean {
-  if (e.kind !== 'measure' || e.mode !== 'vac' || powered) return false;
+  if (e.kind !== 'measure' || e.mode !== 'vac' || powered || !('a' in e)) return false;
   if (!LINE_POINTS.has(e.a) && !LINE_POINTS.has(e.b)) return false;
   return e.value !== null && Math.abs(e.value) < SCORING.deadVolts;
 }
@@ -121,12 +124,20 @@ export function safetyLapses(events: readonly PracticeEvent[]): string[] {
       }
       continue;
     }
-    if (e.kind === 'measure' && e.mode === 'ohm' && (ROD_POINTS.has(e.a) || ROD_POINTS.has(e.b))) {
-      if (powered || !verifiedSincePowerOff) {
-        lapses.push(
-          `Resistance of ${e.a}–${e.b} taken at ${formatClock(e.time)} without the power off and verified dead first: the rods and leads are handled for it.`,
-        );
-      }
+    const handled =
+      e.kind === 'measure' && e.mode === 'ohm'
+        ? 'lead' in e
+          ? `Resistance of the ${e.lead}`
+          : ROD_POINTS.has(e.a) || ROD_POINTS.has(e.b)
+            ? `Resistance of ${e.a}–${e.b}`
+            : null
+        : e.kind === 'observe' && HANDLING_LOOKS.has(e.what)
+          ? `A look at the ${e.what}`
+          : null;
+    if (handled && (powered || !verifiedSincePowerOff)) {
+      lapses.push(
+        `${handled} at ${formatClock(e.time)} without the power off and verified dead first: the rods and leads are handled for it.`,
+      );
     }
   }
   return lapses;

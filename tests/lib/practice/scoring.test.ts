@@ -73,6 +73,24 @@ describe('safety lapses', () => {
     expect(lapses[0]).toMatch(/flame-rod–burner/);
   });
 
+  it('flags a lead disconnected for its resistance or a rod taken out for a look with the power on, not after a verified power-off', () => {
+    const live: PracticeEvent[] = [
+      { kind: 'action', time: 0, action: 'power-on' },
+      { kind: 'measure', time: 5, mode: 'ohm', lead: 'spark-lead', value: 900 },
+      { kind: 'observe', time: 9, what: 'flame-rod', result: 'dirty' },
+      // Watching the flame with the power on handles nothing.
+      { kind: 'observe', time: 12, what: 'flame', result: 'all-burners' },
+    ];
+    expect(safetyLapses(live)).toHaveLength(2);
+    const dead: PracticeEvent[] = [
+      { kind: 'action', time: 0, action: 'power-off' },
+      { kind: 'measure', time: 3, mode: 'vac', a: 'line-hot', b: 'line-neutral', value: 0 },
+      { kind: 'measure', time: 5, mode: 'ohm', lead: 'spark-lead', value: 900 },
+      { kind: 'observe', time: 9, what: 'flame-rod', result: 'dirty' },
+    ];
+    expect(safetyLapses(dead)).toEqual([]);
+  });
+
   // A manual-reset rollout trip is a sign of a combustion hazard: find the cause first (TRADE.md, common practice, no source).
   it('flags a rollout reset', () => {
     const lapses = safetyLapses([{ kind: 'action', time: 75, action: 'reset-rollout' }]);
