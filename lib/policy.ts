@@ -75,6 +75,17 @@ export const POLICY = {
   // ── Tree authoring: drafts, review, publishing, diff, import and export ──
 
   // ── Training: the bench, practice scenarios, attempts and the isolation check ──
+  // Practice (h9ui): trainers create and assign scenarios; apprentices see and run only their own
+  // assignments and attempts; leads and admins read everything of the company's practice.
+  'practice.overview': { roles: { trainer: 'company', lead: 'company', admin: 'company' } },
+  'practice.scenarios.create': { roles: { trainer: 'company' } },
+  'practice.scenarios.get': { roles: { trainer: 'company', lead: 'company', admin: 'company' } },
+  'practice.scenarios.assign': { roles: { trainer: 'company' } },
+  'practice.assignments.list': { roles: { apprentice: 'own', trainer: 'company', lead: 'company', admin: 'company' } },
+  'practice.attempts.start': { roles: { apprentice: 'own' } },
+  'practice.attempts.get': { roles: { apprentice: 'own', trainer: 'company', lead: 'company', admin: 'company' } },
+  'practice.attempts.finish': { roles: { apprentice: 'own' } },
+  'practice.progress': { roles: { trainer: 'company', lead: 'company', admin: 'company' } },
 
   // ── Photos, the report as PDF, and e-mail ──
   // The report as PDF: whoever may see the call (customer copy by default, ?version=office).

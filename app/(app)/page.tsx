@@ -3,6 +3,9 @@ import Link from 'next/link';
 import { CallStatusBadge } from '@/components/calls/call-status';
 import { Time } from '@/components/ui/time-zone';
 import { FormMessage } from '@/components/ui/field';
+import { ApprenticeHome } from '@/components/practice/apprentice-home';
+import { TrainerHome } from '@/components/practice/trainer-home';
+import { apprenticeHomeData, trainerHomeData } from '@/lib/server/practice';
 import { may } from '@/lib/policy';
 import { ROLE_LABELS, type Role } from '@/lib/roles';
 import { listEscalations } from '@/db/diagnoses';
@@ -30,8 +33,7 @@ const TILES: Record<Role, Tile[]> = {
     {
       href: '/practice',
       title: 'Practice',
-      text: 'Practice scenarios your trainer assigns will run here against a simulated furnace.',
-      later: true,
+      text: 'The practice scenarios your trainer assigns, run on a simulated furnace and scored.',
     },
   ],
   technician: [
@@ -56,7 +58,6 @@ const TILES: Record<Role, Tile[]> = {
       href: '/practice',
       title: 'Practice scenarios',
       text: 'Assign bench faults to apprentices and review their attempts and scores.',
-      later: true,
     },
   ],
   admin: [
@@ -79,6 +80,8 @@ export default async function HomePage({ searchParams }: { searchParams: Promise
       </div>
       {may(user.role, 'diagnoses.escalations') && <Escalations />}
       {may(user.role, 'calls.list') && <OpenCalls user={user} />}
+      {user.role === 'trainer' && <TrainerHome {...await trainerHomeData()} />}
+      {user.role === 'apprentice' && <ApprenticeHome {...await apprenticeHomeData()} />}
       <ul className="grid gap-4 sm:grid-cols-2">
         {TILES[user.role].map((tile) => (
           <li key={tile.href + tile.title}>

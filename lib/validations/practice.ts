@@ -103,10 +103,11 @@ export const practiceEventSchema = z.discriminatedUnion('kind', [
     mode: z.enum(['vac', 'vdc', 'ohm', 'udc']),
     a: z.string().optional(),
     b: z.string().optional(),
+    lead: z.string().optional(),
     series: z.string().optional(),
     value: z.number().nullable(),
   }),
-  z.object({ kind: z.literal('observe'), time: z.number(), what: z.enum(['spark', 'flame']), result: z.string() }),
+  z.object({ kind: z.literal('observe'), time: z.number(), what: z.string(), result: z.string() }),
 ]);
 export type PracticeEventOutput = z.output<typeof practiceEventSchema>;
 
@@ -198,7 +199,8 @@ export const attemptSchema = z.object({
   findings: z.array(findingChoiceSchema),
   finding: findingChoiceSchema.nullable(),
   fault: faultChoiceSchema.nullable(),
-  expectedFinding: findingChoiceSchema.nullable(),
+  /** The findings that isolate the fault (any one of them is right); empty while the apprentice runs it. */
+  expectedFindings: z.array(findingChoiceSchema),
   events: z.array(practiceEventSchema),
   score: scoreSchema.nullable(),
 });

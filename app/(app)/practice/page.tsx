@@ -1,16 +1,134 @@
 import type { Metadata } from 'next';
-import { ComingLater } from '@/components/shell/coming-later';
+import Link from 'next/link';
+import { ResultsTable } from '@/components/practice/results-table';
+import { ScenarioForm } from '@/components/practice/scenario-form';
+import { StartAttemptButton } from '@/components/practice/start-attempt-button';
+import { unitText } from '@/components/practice/format';
+import { pageScope } from '@/lib/server/operation';
+import { myAssignments, practiceOverview } from '@/lib/server/practice';
 import { requirePageUser } from '@/lib/server/guard';
+import { assignmentSchema, practiceOverviewSchema } from '@/lib/validations/practice';
+import { createScenarioAction, startAttemptAction } from './actions';
 
 export const metadata: Metadata = { title: 'Practice' };
+export const dynamic = 'force-dynamic';
 
 export default async function PracticePage() {
   const user = await requirePageUser({ page: '/practice' });
+  return user.role === 'apprentice' ? <ApprenticePractice /> : <TrainerPractice />;
+}
+
+async function ApprenticePractice() {
+  const { scope } = await pageScope('practice.assignments.list');
+  const assignments = assignmentSchema
+    .omit({ apprentice: true })
+    .array()
+    .parse(await myAssignments({ scope }));
   return (
-    <ComingLater title={user.role === 'trainer' ? 'Practice scenarios' : 'Practice'}>
-      {user.role === 'trainer'
-        ? 'Here you will assign practice scenarios — a bench fault on a simulated furnace — to apprentices, and review their attempts: the finding reached, the steps taken, the safety actions observed and the time.'
-        : 'Here you will find the practice scenarios your trainer assigns: a simulated furnace with one fault, measured on a schematic of its circuit, and scored.'}
-    </ComingLater>
+    <div className="space-y-6">
+      <div>
+        <h1 className="page-title">Practice</h1>
+        <p className="text-muted">
+          Each scenario is a simulated furnace with one fault. Measure on its schematic, isolate the fault, report the finding: the score
+          counts the right finding, the readings beyond the shortest path, the safety actions and the time.
+        </p>
+      </div>
+      {assignments.length === 0 ? (
+        <p className="card text-muted">Nothing assigned yet. Your trainer’s scenarios will show here.</p>
+      ) : (
+        <ul className="space-y-3" data-testid="assignments">
+          {assignments.map((a) => (
+            <li key={a.id} className="card space-y-2">
+              <div className="flex flex-wrap items-baseline justify-between gap-2">
+                <h2 className="text-lg font-bold">{a.title}</h2>
+                <span className="text-base">{a.dueOn ? `Due ${a.dueOn}` : 'No due date'}</span>
+              </div>
+              <p className="text-base text-muted">{unitText(a.unit)}</p>
+              {a.notes && <p className="whitespace-pre-line text-base">{a.notes}</p>}
+              <p className="text-base">
+                {a.lastScore ? (
+                  <>
+                    Last score <span className="font-mono font-semibold">{`${a.lastScore.total} / ${a.lastScore.max}`}</span> ·{' '}
+                  </>
+                ) : null}
+                {a.attempts} attempt{a.attempts === 1 ? '' : 's'}
+              </p>
+              <StartAttemptButton assignmentId={a.id} resume={a.openAttemptId !== null} start={startAttemptAction} />
+            </li>
+          ))}
+        </ul>
+      )}
+    </div>
+  );
+}
+
+async function TrainerPractice() {
+  const { scope } = await pageScope('practice.overview');
+  const data = practiceOverviewSchema.parse(await practiceOverview({ scope }));
+  return (
+    <div className="space-y-8">
+      <div>
+        <h1 className="page-title">Practice scenarios</h1>
+        <p className="text-muted">Bench faults on a unit profile, assigned to apprentices, and how their attempts went.</p>
+      </div>
+
+      <section aria-labelledby="scenarios-title" className="space-y-3">
+        <h2 id="scenarios-title" className="text-xl font-bold">
+          Scenarios: <span className="font-mono">{data.scenarios.length}</span>
+        </h2>
+        {data.scenarios.length === 0 ? (
+          <p className="card text-muted">No scenario yet: create the first one below.</p>
+        ) : (
+          <ul className="grid gap-3 sm:grid-cols-2" data-testid="scenarios">
+            {data.scenarios.map((s) => (
+              <li key={s.id}>
+                <Link href={`/practice/scenarios/${s.id}`} className="card flex h-full min-h-touch flex-col gap-1 hover:border-copper">
+                  <span className="text-lg font-bold">{s.title}</span>
+                  <span className="text-base text-muted">
+                    {s.faultIds.length === 1 ? '1 fault' : `1 of ${s.faultIds.length} faults at random`} · {unitText(s.unit)}
+                  </span>
+                  <span className="text-base">
+                    {s.assigned} assigned · {s.finished} of {s.attempts} attempts finished{s.dueOn ? ` · due ${s.dueOn}` : ''}
+                  </span>
+                </Link>
+              </li>
+            ))}
+          </ul>
+        )}
+      </section>
+
+      <section aria-labelledby="apprentices-title" className="space-y-3">
+        <h2 id="apprentices-title" className="text-xl font-bold">
+          Apprentices
+        </h2>
+        {data.apprentices.length === 0 ? (
+          <p className="card text-muted">Your company has no active apprentices.</p>
+        ) : (
+          <ul className="flex flex-wrap gap-2">
+            {data.apprentices.map((a) => (
+              <li key={a.id}>
+                <Link href={`/practice/apprentices/${a.id}`} className="btn-secondary">
+                  {a.name}: progress
+                </Link>
+              </li>
+            ))}
+          </ul>
+        )}
+      </section>
+
+      <section aria-labelledby="results-title" className="space-y-3">
+        <h2 id="results-title" className="text-xl font-bold">
+          Results
+        </h2>
+        <ResultsTable rows={data.attempts} />
+      </section>
+
+      <section id="new-scenario" aria-labelledby="new-title" className="card space-y-3">
+        <h2 id="new-title" className="text-xl font-bold">
+          New scenario
+        </h2>
+        <ScenarioForm faults={data.faults} createScenario={createScenarioAction} />
+      </section>
+    </div>
   );
 }

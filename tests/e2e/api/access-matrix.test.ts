@@ -154,7 +154,46 @@ const ROUTES: Record<OperationName, RouteCase> = {
   'mail.mailbox': { method: 'GET', path: () => '/api/dev/mailbox', rows: false },
   'notifications.get': { method: 'GET', path: () => '/api/me/notifications', rows: false },
   'notifications.update': { method: 'PUT', path: () => '/api/me/notifications', body: () => ({}), rows: false },
+  // Practice (h9ui): the rows are a scenario, an assignment and an unfinished attempt made below in the
+  // company of each matrix call's owner (the apprentice's own when the owner is the apprentice).
+  'practice.overview': { method: 'GET', path: () => '/api/practice', rows: false },
+  'practice.scenarios.create': { method: 'POST', path: () => '/api/practice/scenarios', body: () => ({ title: '' }), rows: false },
+  'practice.scenarios.get': { method: 'GET', path: (r) => `/api/practice/scenarios/${practiceOf(r).scenarioId}`, rows: true },
+  // The apprentice already has it: assigning again adds nobody.
+  'practice.scenarios.assign': {
+    method: 'POST',
+    path: (r) => `/api/practice/scenarios/${practiceOf(r).scenarioId}/assignments`,
+    body: (r) => ({ apprenticeIds: [practiceOf(r).apprenticeId] }),
+    rows: true,
+  },
+  'practice.assignments.list': { method: 'GET', path: () => '/api/practice/assignments', rows: false },
+  // The attempt is open already, so starting resumes it.
+  'practice.attempts.start': {
+    method: 'POST',
+    path: (r) => `/api/practice/assignments/${practiceOf(r).assignmentId}/attempts`,
+    rows: true,
+  },
+  'practice.attempts.get': { method: 'GET', path: (r) => `/api/practice/attempts/${practiceOf(r).attemptId}`, rows: true },
+  // Not a finding of the tree: the operation's own 400, nothing scored.
+  'practice.attempts.finish': {
+    method: 'POST',
+    path: (r) => `/api/practice/attempts/${practiceOf(r).attemptId}/finish`,
+    body: () => ({ findingStepId: 'no-such-finding' }),
+    rows: true,
+  },
+  'practice.progress': { method: 'GET', path: (r) => `/api/practice/apprentices/${practiceOf(r).apprenticeId}`, rows: true },
 };
+
+interface PracticeRows {
+  scenarioId: string;
+  assignmentId: string;
+  attemptId: string;
+  apprenticeId: string;
+}
+const practiceRows = new Map<string, PracticeRows>();
+const practiceOf = (r: Rows): PracticeRows => practiceRows.get(r.userId)!;
+/** An apprentice's own practice rows: the others of the company are out of an `own` reach. */
+const OWN_PRACTICE = /^practice\.(attempts\.(start|get|finish))$/;
 
 // The calls and diagnoses a reach covers: the whole company, one's own, or (supervised) one's own and apprentices'.
 const CALL_ROWS =
@@ -246,6 +285,59 @@ beforeAll(async () => {
   }
 });
 
+// A practice scenario, assignment and open attempt in the company of every matrix row's owner.
+beforeAll(async () => {
+  const owners = new Set([...rowsFor.values()].flatMap((v) => [v.own.userId, v.company.userId, v.other.userId]));
+  for (const ownerId of owners) {
+    const owner = await db('users').where({ id: ownerId }).first('id', 'company_id', 'role');
+    let apprenticeId: string | undefined = owner.role === 'apprentice' ? owner.id : undefined;
+    apprenticeId ??= (await db('users').where({ company_id: owner.company_id, role: 'apprentice', active: true }).first('id'))?.id;
+    if (!apprenticeId) {
+      const [made] = await db('users')
+        .insert({
+          company_id: owner.company_id,
+          email: `matrix-apprentice-${randomUUID()}@other.demo.test`,
+          name: 'Matrix apprentice',
+          role: 'apprentice',
+          password_hash: 'x',
+        })
+        .returning('id');
+      apprenticeId = made.id as string;
+    }
+    const [scenario] = await db('practice_scenarios')
+      .insert({
+        company_id: owner.company_id,
+        title: 'Matrix scenario',
+        fault_ids: ['blown-fuse'],
+        unit: JSON.stringify({ controlSupply: '24v', ignition: 'two-rod', fuel: 'natural-gas', draft: 'induced' }),
+      })
+      .returning('id');
+    const [assignment] = await db('practice_assignments')
+      .insert({ company_id: owner.company_id, scenario_id: scenario.id, apprentice_id: apprenticeId })
+      .returning('id');
+    const [session] = await db('bench_sessions')
+      .insert({
+        company_id: owner.company_id,
+        user_id: apprenticeId,
+        unit: JSON.stringify({ controlSupply: '24v', ignition: 'two-rod', fuel: 'natural-gas', draft: 'induced' }),
+        fault_id: 'blown-fuse',
+        seed: 1,
+      })
+      .returning('id');
+    const [attempt] = await db('practice_attempts')
+      .insert({
+        company_id: owner.company_id,
+        assignment_id: assignment.id,
+        scenario_id: scenario.id,
+        apprentice_id: apprenticeId,
+        bench_session_id: session.id,
+        fault_id: 'blown-fuse',
+      })
+      .returning('id');
+    practiceRows.set(ownerId, { scenarioId: scenario.id, assignmentId: assignment.id, attemptId: attempt.id, apprenticeId: apprenticeId! });
+  }
+});
+
 afterAll(async () => {
   await db.destroy();
 });
@@ -258,6 +350,7 @@ function expected(name: OperationName, identity: Identity, variant: Variant, row
   const reach = reachOf(name, identity.role);
   if (!reach) return 403;
   if (variant === 'other') return 404;
+  if (variant === 'company' && OWN_PRACTICE.test(name) && reach === 'own') return 404;
   if (variant === 'company' && CALL_ROWS.test(name)) {
     if (reach === 'own') return 404;
     if (reach === 'supervised' && rows?.ownerRole !== 'apprentice') return 404;

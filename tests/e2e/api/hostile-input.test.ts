@@ -22,6 +22,9 @@ const TABLES = [
   'call_events',
   'outbox',
   'notification_settings',
+  'practice_scenarios',
+  'practice_assignments',
+  'practice_attempts',
 ];
 
 let db: Knex;
@@ -90,6 +93,28 @@ beforeAll(async () => {
     })
     .returning('id');
   ids.outbox = row.id;
+});
+
+// Practice (h9ui): a scenario assigned to the demo apprentice with an open attempt on a real bench session.
+let trainer: ApiClient;
+let apprentice: ApiClient;
+beforeAll(async () => {
+  trainer = await signedIn(DEMO.trainer);
+  apprentice = await signedIn(DEMO.apprentice);
+  const overview = await trainer.get('/api/practice');
+  ids.fault = overview.json.faults[0].id;
+  ids.apprentice = overview.json.apprentices.find((a: { email: string }) => a.email === DEMO.apprentice).id;
+  const scenario = await trainer.post('/api/practice/scenarios', {
+    title: 'Hostile scenario',
+    faultIds: [ids.fault],
+    unit: { controlSupply: '24v', ignition: 'two-rod', fuel: 'natural-gas', draft: 'induced' },
+  });
+  ids.scenario = scenario.json.id;
+  await trainer.post(`/api/practice/scenarios/${ids.scenario}/assignments`, { apprenticeIds: [ids.apprentice] });
+  const assignment = (await apprentice.get('/api/practice/assignments')).json.find(
+    (a: { scenarioId: string }) => a.scenarioId === ids.scenario,
+  );
+  ids.attempt = (await apprentice.post(`/api/practice/assignments/${assignment.id}/attempts`, {})).json.id;
 });
 
 afterAll(async () => {
@@ -268,6 +293,31 @@ const TARGETS: Record<string, Target> = {
     path: () => '/api/me/notifications',
     client: () => tech,
     valid: () => ({ 'sign-off': true, escalation: true, 'tree-review': true, scenario: true }),
+  },
+  'POST /api/practice/scenarios': {
+    method: 'POST',
+    path: () => '/api/practice/scenarios',
+    client: () => trainer,
+    valid: () => ({
+      title: 'Fuzz scenario',
+      faultIds: [ids.fault],
+      unit: { controlSupply: 'line', ignition: 'single-rod', fuel: 'lp', draft: 'natural' },
+      notes: 'Fuzz',
+      dueOn: '2027-01-15',
+    }),
+  },
+  'POST /api/practice/scenarios/{id}/assignments': {
+    method: 'POST',
+    path: () => `/api/practice/scenarios/${ids.scenario}/assignments`,
+    client: () => trainer,
+    valid: () => ({ apprenticeIds: [ids.apprentice] }),
+  },
+  // A finding that gets through scores the attempt once; later ones are 409s.
+  'POST /api/practice/attempts/{id}/finish': {
+    method: 'POST',
+    path: () => `/api/practice/attempts/${ids.attempt}/finish`,
+    client: () => apprentice,
+    valid: () => ({ findingStepId: 'f-no-line-power' }),
   },
   // After the answers: an escalation that gets through ends the diagnosis (later ones are 409s).
   'POST /api/diagnoses/{id}/escalate': {

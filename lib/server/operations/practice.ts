@@ -1,0 +1,101 @@
+import 'server-only';
+import { z } from 'zod';
+import { defineOperation } from '@/lib/server/operation';
+import { noInput, recordId } from '@/lib/server/operations/shared';
+import {
+  addScenario,
+  apprenticeProgress,
+  assignToApprentices,
+  attemptDetail,
+  finishMyAttempt,
+  myAssignments,
+  practiceOverview,
+  scenarioDetail,
+  startAttempt,
+} from '@/lib/server/practice';
+import {
+  assignmentSchema,
+  assignScenarioSchema,
+  attemptSchema,
+  createScenarioSchema,
+  finishAttemptSchema,
+  practiceOverviewSchema,
+  progressSchema,
+  scenarioDetailSchema,
+  scenarioSchema,
+  startedAttemptSchema,
+} from '@/lib/validations/practice';
+
+// GET /api/practice
+export const practiceOverviewOp = defineOperation({
+  name: 'practice.overview',
+  input: noInput,
+  output: practiceOverviewSchema,
+  handler: async ({ scope }) => practiceOverview({ scope }),
+});
+
+// POST /api/practice/scenarios · createScenarioAction
+export const createScenarioOp = defineOperation({
+  name: 'practice.scenarios.create',
+  input: createScenarioSchema,
+  output: scenarioSchema,
+  handler: async ({ user, input }) => addScenario({ user, input }),
+});
+
+// GET /api/practice/scenarios/{id}
+export const getScenarioOp = defineOperation({
+  name: 'practice.scenarios.get',
+  input: z.object({ id: recordId }),
+  output: scenarioDetailSchema,
+  handler: async ({ scope, input }) => scenarioDetail({ scope, id: input.id }),
+});
+
+// POST /api/practice/scenarios/{id}/assignments · assignScenarioAction
+export const assignScenarioOp = defineOperation({
+  name: 'practice.scenarios.assign',
+  fieldsUnder: 'assignment',
+  input: z.object({ id: recordId, assignment: assignScenarioSchema }),
+  output: z.object({ added: z.number() }),
+  handler: async ({ user, input }) => assignToApprentices({ user, id: input.id, apprenticeIds: input.assignment.apprenticeIds }),
+});
+
+// GET /api/practice/assignments
+export const listAssignmentsOp = defineOperation({
+  name: 'practice.assignments.list',
+  input: noInput,
+  output: z.array(assignmentSchema),
+  handler: async ({ scope }) => myAssignments({ scope }),
+});
+
+// POST /api/practice/assignments/{id}/attempts · startAttemptAction
+export const startAttemptOp = defineOperation({
+  name: 'practice.attempts.start',
+  input: z.object({ id: recordId }),
+  output: startedAttemptSchema,
+  handler: async ({ user, scope, input }) => startAttempt({ user, scope, assignmentId: input.id }),
+});
+
+// GET /api/practice/attempts/{id}
+export const getAttemptOp = defineOperation({
+  name: 'practice.attempts.get',
+  input: z.object({ id: recordId }),
+  output: attemptSchema,
+  handler: async ({ user, scope, input }) => attemptDetail({ user, scope, id: input.id }),
+});
+
+// POST /api/practice/attempts/{id}/finish · finishAttemptAction
+export const finishAttemptOp = defineOperation({
+  name: 'practice.attempts.finish',
+  fieldsUnder: 'finding',
+  input: z.object({ id: recordId, finding: finishAttemptSchema }),
+  output: attemptSchema,
+  handler: async ({ user, scope, input }) => finishMyAttempt({ user, scope, id: input.id, findingStepId: input.finding.findingStepId }),
+});
+
+// GET /api/practice/apprentices/{id}
+export const apprenticeProgressOp = defineOperation({
+  name: 'practice.progress',
+  input: z.object({ id: recordId }),
+  output: progressSchema,
+  handler: async ({ scope, input }) => apprenticeProgress({ scope, apprenticeId: input.id }),
+});
