@@ -167,7 +167,12 @@ export async function startAttempt({ user, scope, assignmentId }: { user: Curren
 /** The findings of the built-in tree that isolate a fault: those carrying every one of its expected tags. */
 function expectedFindingsOf(faultId: string): FindingChoice[] {
   const fault = getFault(faultId);
-  return fault ? findingsWithTags(DEFAULT_TREE_GRAPH, fault.expectedFindingTags) : [];
+  if (!fault) return [];
+  const tagged = findingsWithTags(DEFAULT_TREE_GRAPH, fault.expectedFindingTags);
+  if (tagged.length) return tagged;
+  // A tree whose findings do not carry the fault's own tag yet: the finding named after the fault.
+  const named = findingById.get(`f-${fault.id}`);
+  return named ? [named] : [];
 }
 
 function toRow(a: Attempt): AttemptRow {
