@@ -73,6 +73,23 @@ export const POLICY = {
   'treeVersions.get': { roles: everyone },
 
   // ── Tree authoring: drafts, review, publishing, diff, import and export ──
+  // Leads and admins write (h8s). Everyone signed in reads published versions (treeVersions.get
+  // answers 404 for a draft to anyone else); drafts, reviews, diffs and exports are for leads and admins.
+  // Approval is by a different lead or an admin than the one who wrote the version (lib/server/trees.ts).
+  'trees.authoring': { roles: dispatchers },
+  'trees.get': { roles: dispatchers },
+  'trees.create': { roles: dispatchers },
+  'trees.startDraft': { roles: dispatchers },
+  'trees.import': { roles: dispatchers },
+  'treeVersions.authoring': { roles: dispatchers },
+  'treeVersions.save': { roles: dispatchers },
+  'treeVersions.submit': { roles: dispatchers },
+  'treeVersions.approve': { roles: dispatchers },
+  'treeVersions.return': { roles: dispatchers },
+  'treeVersions.publish': { roles: dispatchers },
+  'treeVersions.validation': { roles: dispatchers },
+  'treeVersions.diff': { roles: dispatchers },
+  'treeVersions.export': { roles: dispatchers },
 
   // ── Training: the bench, practice scenarios, attempts and the isolation check ──
   // Practice (h9ui): trainers create and assign scenarios; apprentices see and run only their own

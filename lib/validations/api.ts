@@ -339,13 +339,181 @@ export const treeListSchema = z.array(
   }),
 );
 
+export const treeVersionStatusSchema = z.enum(['draft', 'in_review', 'approved', 'published', 'retired']);
+export type TreeVersionStatusOut = z.output<typeof treeVersionStatusSchema>;
+
+/** A draft's graph as stored: it may not pass the tree schema yet (the validator lists why). */
+const storedGraphSchema = z.object({
+  start: z.string(),
+  steps: z.array(z.record(z.string(), z.unknown())),
+  afterRepair: z.array(z.unknown()).optional(),
+});
+
 export const treeVersionOutSchema = z.object({
   id: z.string(),
   treeId: z.string(),
   slug: z.string(),
   title: z.string(),
   version: z.number(),
-  status: z.enum(['draft', 'in_review', 'published', 'retired']),
+  status: treeVersionStatusSchema,
+  /** Raised by every save of a draft; a save sends the revision it was based on. */
+  revision: z.number(),
   publishedAt: optionalDate,
   graph: z.object({ start: z.string(), steps: z.array(apiStepSchema) }),
 });
+
+const personSchema = z.object({ id: z.string(), name: z.string() }).nullable();
+const problemSchema = z.object({ stepId: z.string().optional(), message: z.string() });
+export type TreeProblemOut = z.output<typeof problemSchema>;
+const reviewCommentOutSchema = z.object({ stepId: z.string().optional(), text: z.string() });
+
+/** A version as the editor and the tree page see it, with its graph as stored and its problems. */
+export const authoringVersionSchema = z.object({
+  id: z.string(),
+  treeId: z.string(),
+  slug: z.string(),
+  title: z.string(),
+  version: z.number(),
+  status: treeVersionStatusSchema,
+  revision: z.number(),
+  graph: storedGraphSchema,
+  problems: z.array(problemSchema),
+  basedOnId: z.string().nullable(),
+  fromBuiltinRevision: z.number().nullable(),
+  builtinRevision: z.number().nullable(),
+  author: personSchema,
+  updatedBy: personSchema,
+  updatedAt: isoDate,
+  submittedBy: personSchema,
+  submittedAt: optionalDate,
+  approvedBy: personSchema,
+  approvedAt: optionalDate,
+  publishedBy: personSchema,
+  publishedAt: optionalDate,
+  returnedBy: personSchema,
+  returnedAt: optionalDate,
+  reviewComments: z.array(reviewCommentOutSchema),
+  createdAt: isoDate,
+});
+export type AuthoringVersionOut = z.output<typeof authoringVersionSchema>;
+
+/** POST /api/trees, POST /api/trees/{id}/drafts, POST /api/trees/import. */
+export const createdDraftSchema = z.object({
+  treeId: z.string(),
+  id: z.string(),
+  version: z.number(),
+  revision: z.number(),
+  status: z.literal('draft'),
+});
+export type CreatedDraftOut = z.output<typeof createdDraftSchema>;
+
+/**
+ * PUT /api/tree-versions/{id}: saved (200, or 422 with the problems the draft still has), or stale
+ * (409: someone saved since `baseRevision`; the current graph and revision come back to merge or reload).
+ */
+export const saveDraftResultSchema = z.discriminatedUnion('outcome', [
+  z.object({
+    outcome: z.literal('saved'),
+    id: z.string(),
+    status: z.literal('draft'),
+    revision: z.number(),
+    updatedAt: isoDate,
+    problems: z.array(problemSchema),
+  }),
+  z.object({
+    outcome: z.literal('stale'),
+    id: z.string(),
+    message: z.string(),
+    current: z.object({ revision: z.number(), graph: storedGraphSchema, updatedBy: personSchema, updatedAt: isoDate }),
+  }),
+]);
+export type SaveDraftResultOut = z.output<typeof saveDraftResultSchema>;
+
+/** The answer of submit, approve, return and publish: where the version stands now. */
+export const versionTransitionSchema = z.object({
+  id: z.string(),
+  treeId: z.string(),
+  status: treeVersionStatusSchema,
+  revision: z.number(),
+  /** The version publishing retired, if any. */
+  retiredId: z.string().nullable().optional(),
+});
+export type VersionTransitionOut = z.output<typeof versionTransitionSchema>;
+
+export const treeValidationSchema = z.object({ id: z.string(), revision: z.number(), ok: z.boolean(), problems: z.array(problemSchema) });
+export type TreeValidationOut = z.output<typeof treeValidationSchema>;
+
+const stepRefSchema = z.object({ stepId: z.string(), kind: z.string(), title: z.string() });
+const fieldChangeSchema = z.object({ field: z.string(), before: z.string(), after: z.string() });
+export const treeDiffSchema = z.object({
+  from: z.object({ id: z.string(), label: z.string() }),
+  to: z.object({ id: z.string(), label: z.string() }),
+  start: z.object({ before: z.string(), after: z.string() }).nullable(),
+  added: z.array(stepRefSchema),
+  removed: z.array(stepRefSchema),
+  changed: z.array(stepRefSchema.extend({ fields: z.array(fieldChangeSchema) })),
+  rewired: z.array(z.object({ stepId: z.string(), via: z.string(), before: z.string().nullable(), after: z.string().nullable() })),
+  afterRepair: fieldChangeSchema.nullable(),
+});
+export type TreeDiffOut = z.output<typeof treeDiffSchema>;
+
+/** GET /api/tree-versions/{id}/export: the document of lib/trees/document.ts, passed through as built. */
+export const treeDocumentOutSchema = z.object({
+  format: z.string(),
+  formatVersion: z.number(),
+  tree: z.object({ slug: z.string(), title: z.string(), symptom: z.string(), equipmentKind: z.string() }),
+  source: z.object({ version: z.number(), exportedAt: z.string() }).optional(),
+  graph: z.looseObject({ start: z.string(), steps: z.array(z.looseObject({ id: z.string() })) }),
+});
+
+const treeEventSchema = z.object({
+  id: z.string(),
+  versionId: z.string().nullable(),
+  version: z.number().nullable(),
+  kind: z.string(),
+  user: personSchema,
+  detail: z.record(z.string(), z.unknown()),
+  at: isoDate,
+});
+export type TreeEventOut = z.output<typeof treeEventSchema>;
+
+const builtinUpdateSchema = z.object({ revision: z.number(), title: z.string(), publishedVersionId: z.string() }).nullable();
+
+/** The tree list of authoring: published version, drafts and reviews open, who edits, last change. */
+export const authoringTreeListSchema = z.array(
+  z.object({
+    id: z.string(),
+    slug: z.string(),
+    title: z.string(),
+    symptom: z.string(),
+    equipmentKind: z.string(),
+    published: z.object({ id: z.string(), version: z.number(), publishedAt: optionalDate }).nullable(),
+    openVersions: z.array(
+      z.object({
+        id: z.string(),
+        version: z.number(),
+        status: treeVersionStatusSchema,
+        revision: z.number(),
+        author: personSchema,
+        updatedBy: personSchema,
+        updatedAt: isoDate,
+      }),
+    ),
+    lastChange: z.object({ kind: z.string(), user: personSchema, at: isoDate }).nullable(),
+    builtinUpdate: builtinUpdateSchema,
+  }),
+);
+export type AuthoringTreeOut = z.output<typeof authoringTreeListSchema>[number];
+
+/** One tree's page: its versions (newest first), the audit trail, and a built-in update if any. */
+export const treeDetailSchema = z.object({
+  id: z.string(),
+  slug: z.string(),
+  title: z.string(),
+  symptom: z.string(),
+  equipmentKind: z.string(),
+  versions: z.array(authoringVersionSchema.omit({ graph: true, problems: true })),
+  events: z.array(treeEventSchema),
+  builtinUpdate: builtinUpdateSchema,
+});
+export type TreeDetailOut = z.output<typeof treeDetailSchema>;

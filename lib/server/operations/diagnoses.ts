@@ -1,11 +1,11 @@
 import 'server-only';
 import { z } from 'zod';
 import { listEscalations } from '@/db/diagnoses';
-import { getTreeVersion, listTrees } from '@/db/trees';
+import { listTrees } from '@/db/trees';
 import { answerDiagnosis, escalate, getDiagnosisView, signOffFinding, startDiagnosis, undoLastAnswer } from '@/lib/server/diagnoses';
 import { defineOperation } from '@/lib/server/operation';
 import { noInput, recordId } from '@/lib/server/operations/shared';
-import { toApiStep } from '@/lib/server/steps';
+import { readTreeVersion } from '@/lib/server/trees';
 import {
   answerResultSchema,
   diagnosisViewSchema,
@@ -89,8 +89,6 @@ export const getTreeVersionOp = defineOperation({
   name: 'treeVersions.get',
   input: z.object({ id: recordId }),
   output: treeVersionOutSchema,
-  handler: async ({ scope, input }) => {
-    const v = await getTreeVersion({ companyId: scope.companyId, id: input.id, fresh: true });
-    return { ...v, graph: { start: v.graph.start, steps: v.graph.steps.map(toApiStep) } };
-  },
+  // A draft or a version in review only for leads and admins (lib/server/trees.ts).
+  handler: async ({ scope, user, input }) => readTreeVersion({ scope, role: user.role, id: input.id }),
 });

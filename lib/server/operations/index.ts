@@ -6,6 +6,7 @@ import * as company from '@/lib/server/operations/company';
 import * as diagnoses from '@/lib/server/operations/diagnoses';
 import * as field from '@/lib/server/operations/field';
 import * as mail from '@/lib/server/operations/mail';
+import * as trees from '@/lib/server/operations/trees';
 import * as practice from '@/lib/server/operations/practice';
 
 /** Every declared operation, by its policy name (tests check it against lib/policy.ts both ways). */
@@ -17,6 +18,7 @@ export const OPERATIONS: ReadonlyMap<OperationName, Operation> = new Map(
       ...Object.values(field),
       ...Object.values(diagnoses),
       ...Object.values(mail),
+      ...Object.values(trees),
       ...Object.values(practice),
     ] as Operation[]
   ).map((op) => [op.name, op]),

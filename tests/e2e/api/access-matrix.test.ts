@@ -24,6 +24,8 @@ interface Rows {
   siteId: string;
   userId: string;
   treeVersionId: string;
+  /** The tree of that (published) version. */
+  treeId: string;
   /** The unit's draft as stored, so that correcting it to itself changes nothing. */
   unitDraft: string;
   /** The owner of the call: who the row belongs to. */
@@ -136,6 +138,38 @@ const ROUTES: Record<OperationName, RouteCase> = {
   'diagnoses.escalations': { method: 'GET', path: () => '/api/escalations', rows: false },
   'trees.list': { method: 'GET', path: () => '/api/trees', rows: false },
   'treeVersions.get': { method: 'GET', path: (r) => `/api/tree-versions/${r.treeVersionId}`, rows: true },
+  // Tree authoring (h8s). On the published version every change is the operation's own 409 (not a
+  // draft, not submitted, not approved); a new tree and an import are refused by their own 400.
+  // Starting a draft does start one (a copy of the published version) on the company's tree.
+  'trees.authoring': { method: 'GET', path: () => '/api/trees/authoring', rows: false },
+  'trees.get': { method: 'GET', path: (r) => `/api/trees/${r.treeId}`, rows: true },
+  'trees.create': { method: 'POST', path: () => '/api/trees', body: () => ({ title: '', symptom: '', equipmentKind: '' }), rows: false },
+  'trees.startDraft': {
+    method: 'POST',
+    path: (r) => `/api/trees/${r.treeId}/drafts`,
+    body: (r) => ({ fromVersionId: r.treeVersionId }),
+    rows: true,
+  },
+  'trees.import': { method: 'POST', path: () => '/api/trees/import', body: () => ({ document: { format: 'not ours' } }), rows: false },
+  'treeVersions.authoring': { method: 'GET', path: (r) => `/api/tree-versions/${r.treeVersionId}/authoring`, rows: true },
+  'treeVersions.save': {
+    method: 'PUT',
+    path: (r) => `/api/tree-versions/${r.treeVersionId}`,
+    body: () => ({ baseRevision: 1, graph: { start: 'x', steps: [] } }),
+    rows: true,
+  },
+  'treeVersions.submit': { method: 'POST', path: (r) => `/api/tree-versions/${r.treeVersionId}/submit`, rows: true },
+  'treeVersions.approve': { method: 'POST', path: (r) => `/api/tree-versions/${r.treeVersionId}/approve`, rows: true },
+  'treeVersions.return': {
+    method: 'POST',
+    path: (r) => `/api/tree-versions/${r.treeVersionId}/return`,
+    body: () => ({ comments: [{ text: 'Matrix comment' }] }),
+    rows: true,
+  },
+  'treeVersions.publish': { method: 'POST', path: (r) => `/api/tree-versions/${r.treeVersionId}/publish`, rows: true },
+  'treeVersions.validation': { method: 'GET', path: (r) => `/api/tree-versions/${r.treeVersionId}/validation`, rows: true },
+  'treeVersions.diff': { method: 'GET', path: (r) => `/api/tree-versions/${r.treeVersionId}/diff?against=builtin`, rows: true },
+  'treeVersions.export': { method: 'GET', path: (r) => `/api/tree-versions/${r.treeVersionId}/export`, rows: true },
   'reports.pdf': { method: 'GET', path: (r) => `/api/calls/${r.callId}/report.pdf`, rows: true },
   'reports.emailPreview': { method: 'GET', path: (r) => `/api/calls/${r.callId}/report-email`, rows: true },
   'reports.email': {
@@ -229,7 +263,7 @@ async function userByEmail(email: string) {
 async function callOf(ownerEmail: string): Promise<Rows> {
   const owner = await userByEmail(ownerEmail);
   const unit = await db('units').where({ company_id: owner.company_id }).first('id', 'site_id', 'draft');
-  const version = await db('tree_versions').where({ company_id: owner.company_id, status: 'published' }).first('id');
+  const version = await db('tree_versions').where({ company_id: owner.company_id, status: 'published' }).first('id', 'tree_id');
   const [call] = await db('service_calls')
     .insert({ company_id: owner.company_id, unit_id: unit.id, complaint: 'No heat (matrix row)', technician_id: owner.id })
     .returning('id');
@@ -244,6 +278,7 @@ async function callOf(ownerEmail: string): Promise<Rows> {
     siteId: unit.site_id,
     userId: owner.id,
     treeVersionId: version.id,
+    treeId: version.tree_id,
     ownerRole: owner.role,
     ownerName: owner.name,
   };

@@ -1,0 +1,7 @@
+// GET /api/tree-versions/{id}/export – the version as an import/export document.
+import { routeOf } from '@/lib/server/operation';
+import { exportVersionOp } from '@/lib/server/operations/trees';
+
+export const dynamic = 'force-dynamic';
+
+export const GET = routeOf(exportVersionOp, { params: { id: 'id' } });

@@ -1,0 +1,7 @@
+// POST /api/tree-versions/{id}/publish – publishes an approved version after the validator finds nothing; retires the one before.
+import { routeOf } from '@/lib/server/operation';
+import { publishVersionOp } from '@/lib/server/operations/trees';
+
+export const dynamic = 'force-dynamic';
+
+export const POST = routeOf(publishVersionOp, { params: { id: 'id' } });
