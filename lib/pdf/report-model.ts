@@ -60,7 +60,6 @@ export function shownValue(step: Pick<PathStep, 'text' | 'value' | 'unit' | 'ove
 }
 
 export const isAfterRepair = (stepId: string) => stepId.includes('recheck--');
-const isVerifyCheck = (stepId: string) => stepId.includes('verify--');
 
 /** The readings of a diagnosis's own steps (not the energy procedures'), the last one of each step. */
 export function readingsOf(diagnoses: CallReportOut['diagnoses']): ReportReading[] {
@@ -104,9 +103,8 @@ export function customerReport(report: CallReportOut): CustomerReport {
     } else {
       open.push('The diagnosis was not finished on this visit.');
     }
-    for (const s of d.steps) {
-      if (isVerifyCheck(s.stepId) && s.kind === 'action') checks.push({ text: s.stepTitle, done: s.confirmed !== false });
-    }
+    // A verified visit ended at the checks step, which confirms the finding's checks one by one.
+    if (d.status === 'verified' && d.findingDetail) for (const text of d.findingDetail.verification) checks.push({ text, done: true });
   }
   const v = report.call.verification;
   for (const c of v?.checks ?? []) checks.push(c);

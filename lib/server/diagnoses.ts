@@ -37,6 +37,7 @@ import type { answerResultSchema } from '@/lib/validations/api';
 import type { z } from 'zod';
 import type { AnswerInput, CallStatus } from '@/lib/validations/field';
 import { toApiFinding, toApiStep } from '@/lib/server/steps';
+import { notify } from '@/lib/server/notify';
 import {
   advance,
   currentStep,
@@ -544,6 +545,15 @@ export async function answerDiagnosis({ scope, id, input }: { scope: Scope; id: 
     // A verified repair makes the call repaired: it can be closed.
     repaired: status === 'verified',
   });
+  if (saved && reachedFinding)
+    void notify({
+      kind: 'sign-off',
+      companyId: scope.companyId,
+      actorId: scope.userId,
+      callId: call.id,
+      diagnosisId: id,
+      findingTitle: finding.title,
+    });
   if (saved) return result;
 
   // Something changed since the read: this very answer (a retry sent at the same time), another
@@ -619,6 +629,7 @@ export async function escalate({ scope, id, note }: { scope: Scope; id: string; 
     if (!(await escalateDiagnosis({ companyId: scope.companyId, id, userId: scope.userId, note }, trx))) {
       throw new AppError('conflict', 'This diagnosis has already ended (escalated or verified).');
     }
+    void notify({ kind: 'escalation', companyId: scope.companyId, actorId: scope.userId, callId: call.id, diagnosisId: id, note });
     return getDiagnosisView({ scope, id }, trx);
   });
 }

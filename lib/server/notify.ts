@@ -2,7 +2,7 @@ import 'server-only';
 import { listDisabledNotifications, listNotifiable, saveNotificationSettings } from '@/db/outbox';
 import { getUser } from '@/db/users';
 import type { Scope } from '@/lib/policy';
-import { queueMail } from '@/lib/server/outbox';
+import { queueMail } from '@/lib/server/outbox-worker';
 import { NOTIFICATION_KINDS, type NotificationKind } from '@/lib/validations/mail';
 
 // Short e-mail notifications to the person who must act, through the same outbox as the report:
@@ -10,26 +10,33 @@ import { NOTIFICATION_KINDS, type NotificationKind } from '@/lib/validations/mai
 // idempotency key), never to the person who caused it. A notification is a courtesy: it never
 // fails the action that raised it.
 
-export type NotifyEvent =
-  | { kind: 'sign-off'; companyId: string; actorId: string; callId: string; diagnosisId: string; who: string; findingTitle: string }
-  | { kind: 'escalation'; companyId: string; actorId: string; callId: string; diagnosisId: string; who: string; note: string }
-  | { kind: 'tree-review'; companyId: string; actorId: string; versionId: string; who: string; treeTitle: string; version: number }
+/** `who` may be given; otherwise the actor's name is looked up. */
+export type NotifyEvent = { who?: string } & (
+  | { kind: 'sign-off'; companyId: string; actorId: string; callId: string; diagnosisId: string; findingTitle: string }
+  | { kind: 'escalation'; companyId: string; actorId: string; callId: string; diagnosisId: string; note: string }
+  | { kind: 'tree-review'; companyId: string; actorId: string; versionId: string; treeTitle: string; version: number }
   | {
       kind: 'scenario';
       companyId: string;
       actorId: string;
       assignmentId: string;
       apprenticeId: string;
-      who: string;
       scenarioTitle: string;
-    };
+    }
+);
 
 function link(path: string): string {
   const base = process.env.APP_URL?.replace(/\/$/, '') ?? '';
   return base ? `${base}${path}` : path;
 }
 
-function compose(event: NotifyEvent): { subject: string; lines: string[]; ref: string; roles?: string[]; userIds?: string[] } {
+function compose(event: NotifyEvent & { who: string }): {
+  subject: string;
+  lines: string[];
+  ref: string;
+  roles?: string[];
+  userIds?: string[];
+} {
   switch (event.kind) {
     case 'sign-off':
       return {
@@ -81,7 +88,9 @@ const FOOTER = ['', '—', 'Proving Ground. You can turn this kind of e-mail off
 /** Queues the event's notification for everyone who should act on it; answers how many were queued. */
 export async function notify(event: NotifyEvent): Promise<number> {
   try {
-    const { subject, lines, ref, roles, userIds } = compose(event);
+    const actor = await getUser({ companyId: event.companyId, id: event.actorId });
+    if (event.kind === 'sign-off' && actor.role !== 'apprentice') return 0;
+    const { subject, lines, ref, roles, userIds } = compose({ ...event, who: event.who ?? actor.name });
     const people = await listNotifiable({ companyId: event.companyId, kind: event.kind, roles, userIds, except: event.actorId });
     let queued = 0;
     for (const person of people) {

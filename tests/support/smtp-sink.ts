@@ -1,4 +1,7 @@
 import { Buffer } from 'node:buffer';
+import { randomUUID } from 'node:crypto';
+import { mkdirSync, writeFileSync } from 'node:fs';
+import path from 'node:path';
 import { SMTPServer } from 'smtp-server';
 
 // An SMTP sink on loopback for the mail tests: it accepts every message and keeps its raw bytes.
@@ -11,7 +14,9 @@ export interface Sink {
   start(): Promise<void>;
 }
 
-export async function startSink(port = 0): Promise<Sink> {
+/** `dir`: also write each message there as an .eml file, as the app's dev mailbox reads them. */
+export async function startSink(port = 0, dir?: string): Promise<Sink> {
+  if (dir) mkdirSync(dir, { recursive: true });
   const messages: Buffer[] = [];
   let server: SMTPServer | null = null;
   const sink: Sink = {
@@ -26,7 +31,9 @@ export async function startSink(port = 0): Promise<Sink> {
           const chunks: Uint8Array[] = [];
           stream.on('data', (c: Uint8Array) => chunks.push(c));
           stream.on('end', () => {
-            messages.push(Buffer.concat(chunks));
+            const raw = Buffer.concat(chunks);
+            messages.push(raw);
+            if (dir) writeFileSync(path.join(dir, `${Date.now()}-${randomUUID().slice(0, 8)}.eml`), new Uint8Array(raw));
             callback();
           });
         },

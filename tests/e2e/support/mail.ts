@@ -1,0 +1,57 @@
+import { readdirSync, readFileSync } from 'node:fs';
+import path from 'node:path';
+import { parseEml, type ParsedEml } from '@/lib/mail/eml';
+import type { ApiClient } from '@/tests/e2e/support/http';
+import { startSink, type Sink } from '@/tests/support/smtp-sink';
+
+// The SMTP sink the app sends to in the HTTP and browser tests. When the test command runs one
+// (scripts/fakes.mjs), it is used as it is; otherwise, given SMTP_PORT and MAIL_SINK_DIR, the test
+// runs its own on that port, writing .eml files where the dev mailbox reads them — and may then
+// take it down to play an outage.
+
+export interface MailSink {
+  dir: string | null;
+  /** The sink this test started and may stop and start again; null when another process runs it. */
+  own: Sink | null;
+  stop(): Promise<void>;
+}
+
+export async function useMailSink(): Promise<MailSink> {
+  const dir = process.env.MAIL_SINK_DIR || null;
+  const port = Number(process.env.SMTP_PORT) || 2525;
+  let own: Sink | null = null;
+  if (dir) {
+    try {
+      own = await startSink(port, dir);
+    } catch (error) {
+      if ((error as { code?: string }).code !== 'EADDRINUSE') throw error;
+    }
+  }
+  return { dir, own, stop: async () => own?.stop() };
+}
+
+/** The caught messages the app sent from outbox row `outboxId`. */
+export function caught(dir: string, outboxId: string): ParsedEml[] {
+  return readdirSync(dir)
+    .filter((n) => n.endsWith('.eml'))
+    .map((n) => parseEml(readFileSync(path.join(dir, n))))
+    .filter((m) => m.headers['x-outbox-id'] === outboxId);
+}
+
+export async function waitFor<T>(what: string, probe: () => Promise<T | null | undefined | false>, timeoutMs = 45_000): Promise<T> {
+  const until = Date.now() + timeoutMs;
+  for (;;) {
+    const value = await probe();
+    if (value) return value;
+    if (Date.now() > until) throw new Error(`timed out waiting for ${what}`);
+    await new Promise((r) => setTimeout(r, 500));
+  }
+}
+
+/** The e-mail of a call with this id, as the call's report page lists it. */
+export async function outboxStatus(client: ApiClient, callId: string, id: string) {
+  const res = await client.get(`/api/calls/${callId}/report-email`);
+  return (res.json?.messages as { id: string; status: string; lastError: string | null; attempts: number }[] | undefined)?.find(
+    (m) => m.id === id,
+  );
+}
