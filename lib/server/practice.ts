@@ -21,6 +21,7 @@ import { FAULTS, faultFits, getFault } from '@/lib/bench';
 import { findingChoices, findingsWithTags, readingsToFinding } from '@/lib/practice/findings';
 import { scoreAttempt, type PracticeEvent } from '@/lib/practice/scoring';
 import type { CurrentUser } from '@/lib/server/guard';
+import { notify } from '@/lib/server/notify';
 import { authorize } from '@/lib/server/operation';
 import { DEFAULT_TREE_GRAPH } from '@/lib/trees/default-tree';
 import {
@@ -142,6 +143,17 @@ export async function scenarioDetail({ scope, id }: { scope: Scope; id: string }
 
 export async function assignToApprentices({ user, id, apprenticeIds }: { user: CurrentUser; id: string; apprenticeIds: string[] }) {
   const added = await assignScenario({ companyId: user.companyId, scenarioId: id, apprenticeIds, by: user.id });
+  const { title } = await getScenario({ companyId: user.companyId, id });
+  for (const apprenticeId of new Set(apprenticeIds)) {
+    void notify({
+      kind: 'scenario',
+      companyId: user.companyId,
+      actorId: user.id,
+      assignmentId: `${id}:${apprenticeId}`,
+      apprenticeId,
+      scenarioTitle: title,
+    });
+  }
   return { added };
 }
 
