@@ -1,6 +1,7 @@
 import Link from 'next/link';
 import { AppNav } from '@/components/shell/app-nav';
 import { SignOutButton } from '@/components/shell/sign-out-button';
+import { SettingsLink } from '@/components/shell/settings-link';
 import { SignOutEverywhere } from '@/components/shell/sign-out-everywhere';
 import { Brand } from '@/components/ui/brand';
 import { ThemeToggle } from '@/components/ui/theme-toggle';
@@ -31,6 +32,7 @@ export default async function AppLayout({ children }: { children: React.ReactNod
             <ThemeToggle />
             <SignOutButton />
           </div>
+          <SettingsLink className="-ml-1" />
           <SignOutEverywhere className="-ml-1" />
         </div>
       </aside>
@@ -59,6 +61,7 @@ export default async function AppLayout({ children }: { children: React.ReactNod
       <footer className="no-print border-t border-line bg-raised px-4 py-3 xl:hidden">
         <div className="mx-auto flex max-w-6xl flex-wrap items-center justify-between gap-2 text-sm">
           <UserBadge name={user.name} role={ROLE_LABELS[user.role]} company={user.companyName} />
+          <SettingsLink />
           <SignOutEverywhere />
         </div>
       </footer>
