@@ -546,7 +546,7 @@ export async function answerDiagnosis({ scope, id, input }: { scope: Scope; id: 
     repaired: status === 'verified',
   });
   if (saved && reachedFinding)
-    void notify({
+    await notify({
       kind: 'sign-off',
       companyId: scope.companyId,
       actorId: scope.userId,
@@ -629,7 +629,7 @@ export async function escalate({ scope, id, note }: { scope: Scope; id: string; 
     if (!(await escalateDiagnosis({ companyId: scope.companyId, id, userId: scope.userId, note }, trx))) {
       throw new AppError('conflict', 'This diagnosis has already ended (escalated or verified).');
     }
-    void notify({ kind: 'escalation', companyId: scope.companyId, actorId: scope.userId, callId: call.id, diagnosisId: id, note });
+    await notify({ kind: 'escalation', companyId: scope.companyId, actorId: scope.userId, callId: call.id, diagnosisId: id, note });
     return getDiagnosisView({ scope, id }, trx);
   });
 }

@@ -145,7 +145,7 @@ export async function assignToApprentices({ user, id, apprenticeIds }: { user: C
   const added = await assignScenario({ companyId: user.companyId, scenarioId: id, apprenticeIds, by: user.id });
   const { title } = await getScenario({ companyId: user.companyId, id });
   for (const apprenticeId of new Set(apprenticeIds)) {
-    void notify({
+    await notify({
       kind: 'scenario',
       companyId: user.companyId,
       actorId: user.id,
