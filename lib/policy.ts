@@ -90,6 +90,9 @@ export const POLICY = {
   'treeVersions.validation': { roles: dispatchers },
   'treeVersions.diff': { roles: dispatchers },
   'treeVersions.export': { roles: dispatchers },
+  // Usage: how diagnoses went on each version, and the company's findings, first-time fix and time to a finding.
+  'trees.usage': { roles: dispatchers },
+  'trees.companyUsage': { roles: dispatchers },
 
   // ── Training: the bench, practice scenarios, attempts and the isolation check ──
   // Practice (h9ui): trainers create and assign scenarios; apprentices see and run only their own

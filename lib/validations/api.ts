@@ -517,3 +517,43 @@ export const treeDetailSchema = z.object({
   builtinUpdate: builtinUpdateSchema,
 });
 export type TreeDetailOut = z.output<typeof treeDetailSchema>;
+
+/** GET /api/trees/{id}/usage: how diagnoses went on each published (or retired) version. */
+export const treeUsageSchema = z.object({
+  abandonedAfterDays: z.number(),
+  versions: z.array(
+    z.object({
+      id: z.string(),
+      version: z.number(),
+      status: z.string(),
+      publishedAt: optionalDate,
+      diagnoses: z.number(),
+      inProgress: z.number(),
+      found: z.number(),
+      escalated: z.number(),
+      findings: z.array(z.object({ stepId: z.string(), title: z.string(), count: z.number() })),
+      stops: z.array(z.object({ stepId: z.string(), title: z.string(), escalated: z.number(), abandoned: z.number() })),
+    }),
+  ),
+});
+export type TreeUsageOut = z.output<typeof treeUsageSchema>;
+
+/** GET /api/trees/usage: the company's findings per month, first-time fix, time to a finding. */
+export const companyTreeUsageSchema = z.object({
+  months: z.array(
+    z.object({
+      month: z.string(),
+      total: z.number(),
+      findings: z.array(z.object({ stepId: z.string(), title: z.string(), count: z.number() })),
+    }),
+  ),
+  firstTimeFix: z.object({
+    windowDays: z.number(),
+    closed: z.number(),
+    returned: z.number(),
+    windowOpen: z.number(),
+    rate: z.number().nullable(),
+  }),
+  timeToFinding: z.object({ medianSeconds: z.number().nullable(), diagnoses: z.number() }),
+});
+export type CompanyTreeUsageOut = z.output<typeof companyTreeUsageSchema>;

@@ -18,14 +18,17 @@ import {
   submitVersion,
   validateVersion,
 } from '@/lib/server/trees';
+import { getCompanyTreeUsage, getTreeUsage } from '@/lib/server/tree-usage';
 import {
   authoringTreeListSchema,
+  companyTreeUsageSchema,
   authoringVersionSchema,
   createdDraftSchema,
   saveDraftResultSchema,
   treeDetailSchema,
   treeDiffSchema,
   treeDocumentOutSchema,
+  treeUsageSchema,
   treeValidationSchema,
   versionTransitionSchema,
 } from '@/lib/validations/api';
@@ -152,4 +155,20 @@ export const importTreeOp = defineOperation({
   input: importTreeSchema,
   output: createdDraftSchema,
   handler: async ({ scope, input }) => importTree({ scope, document: input.document }),
+});
+
+// GET /api/trees/{id}/usage
+export const treeUsageOp = defineOperation({
+  name: 'trees.usage',
+  input: z.object({ treeId: recordId }),
+  output: treeUsageSchema,
+  handler: async ({ scope, input }) => getTreeUsage({ scope, treeId: input.treeId }),
+});
+
+// GET /api/trees/usage
+export const companyTreeUsageOp = defineOperation({
+  name: 'trees.companyUsage',
+  input: noInput,
+  output: companyTreeUsageSchema,
+  handler: async ({ scope }) => getCompanyTreeUsage({ scope }),
 });

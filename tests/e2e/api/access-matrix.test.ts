@@ -170,6 +170,8 @@ const ROUTES: Record<OperationName, RouteCase> = {
   'treeVersions.validation': { method: 'GET', path: (r) => `/api/tree-versions/${r.treeVersionId}/validation`, rows: true },
   'treeVersions.diff': { method: 'GET', path: (r) => `/api/tree-versions/${r.treeVersionId}/diff?against=builtin`, rows: true },
   'treeVersions.export': { method: 'GET', path: (r) => `/api/tree-versions/${r.treeVersionId}/export`, rows: true },
+  'trees.usage': { method: 'GET', path: (r) => `/api/trees/${r.treeId}/usage`, rows: true },
+  'trees.companyUsage': { method: 'GET', path: () => '/api/trees/usage', rows: false },
   'reports.pdf': { method: 'GET', path: (r) => `/api/calls/${r.callId}/report.pdf`, rows: true },
   'reports.emailPreview': { method: 'GET', path: (r) => `/api/calls/${r.callId}/report-email`, rows: true },
   'reports.email': {

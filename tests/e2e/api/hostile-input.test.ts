@@ -25,6 +25,9 @@ const TABLES = [
   'practice_scenarios',
   'practice_assignments',
   'practice_attempts',
+  'fault_trees',
+  'tree_versions',
+  'tree_events',
 ];
 
 let db: Knex;
@@ -115,6 +118,26 @@ beforeAll(async () => {
     (a: { scenarioId: string }) => a.scenarioId === ids.scenario,
   );
   ids.attempt = (await apprentice.post(`/api/practice/assignments/${assignment.id}/attempts`, {})).json.id;
+});
+
+// Tree authoring (h8s): a tree of its own with a draft holding the built-in graph, and an export to import.
+let treeLead: ApiClient;
+const treeRefs: { graph?: unknown; document?: Record<string, unknown>; revision?: number } = {};
+beforeAll(async () => {
+  treeLead = await signedIn(DEMO.lead);
+  const created = await treeLead.post('/api/trees', {
+    title: `Hostile tree ${randomUUID().slice(0, 8)}`,
+    symptom: 'No heat',
+    equipmentKind: 'dsi-furnace',
+  });
+  ids.tree = created.json.treeId;
+  ids.draft = created.json.id;
+  treeRefs.graph = (await treeLead.get(`/api/tree-versions/${ids.version}/authoring`)).json.graph;
+  treeRefs.revision = (
+    await treeLead.call('PUT', `/api/tree-versions/${ids.draft}`, { baseRevision: 1, graph: treeRefs.graph })
+  ).json.revision;
+  const doc = (await treeLead.get(`/api/tree-versions/${ids.version}/export`)).json;
+  treeRefs.document = { ...doc, tree: { ...doc.tree, slug: `hostile-import-${randomUUID().slice(0, 8)}` } };
 });
 
 afterAll(async () => {
@@ -311,6 +334,38 @@ const TARGETS: Record<string, Target> = {
     path: () => `/api/practice/scenarios/${ids.scenario}/assignments`,
     client: () => trainer,
     valid: () => ({ apprenticeIds: [ids.apprentice] }),
+  },
+  // Tree authoring (h8s). A new tree with a taken short name is a 409; a save on the current revision
+  // lands once, the rest are stale (409, nothing stored); the draft is never in review, so return is a 409.
+  'POST /api/trees': {
+    method: 'POST',
+    path: () => '/api/trees',
+    client: () => treeLead,
+    valid: () => ({ title: 'Hostile tree', symptom: 'No heat', equipmentKind: 'dsi-furnace', slug: 'hostile-tree' }),
+  },
+  'POST /api/trees/{id}/drafts': {
+    method: 'POST',
+    path: () => `/api/trees/${ids.tree}/drafts`,
+    client: () => treeLead,
+    valid: () => ({ fromVersionId: ids.draft }),
+  },
+  'PUT /api/tree-versions/{id}': {
+    method: 'PUT',
+    path: () => `/api/tree-versions/${ids.draft}`,
+    client: () => treeLead,
+    valid: () => ({ baseRevision: treeRefs.revision, graph: treeRefs.graph }),
+  },
+  'POST /api/tree-versions/{id}/return': {
+    method: 'POST',
+    path: () => `/api/tree-versions/${ids.draft}/return`,
+    client: () => treeLead,
+    valid: () => ({ comments: [{ stepId: 'flame-signal', text: 'Which range?' }] }),
+  },
+  'POST /api/trees/import': {
+    method: 'POST',
+    path: () => '/api/trees/import',
+    client: () => treeLead,
+    valid: () => ({ document: treeRefs.document }),
   },
   // A finding that gets through scores the attempt once; later ones are 409s.
   'POST /api/practice/attempts/{id}/finish': {
