@@ -1,4 +1,5 @@
 import 'server-only';
+import { getTree } from '@/db/trees';
 import { ABANDONED_AFTER_DAYS, getCompanyUsageRows, getVersionUsageRows, RETURN_WINDOW_DAYS } from '@/db/tree-usage';
 import type { Scope } from '@/lib/policy';
 import { companyTimeZone } from '@/lib/server/company';
@@ -30,8 +31,10 @@ function stepOfState(state: string): string {
 }
 
 export async function getTreeUsage({ scope, treeId }: { scope: Scope; treeId: string }) {
+  const tree = await getTree({ companyId: scope.companyId, id: treeId });
   const rows = await getVersionUsageRows({ companyId: scope.companyId, treeId });
   return {
+    tree: { id: tree.id, title: tree.title },
     abandonedAfterDays: ABANDONED_AFTER_DAYS,
     versions: rows.versions.map((v) => {
       const titles = titlesOf([v.graph]);

@@ -520,6 +520,7 @@ export type TreeDetailOut = z.output<typeof treeDetailSchema>;
 
 /** GET /api/trees/{id}/usage: how diagnoses went on each published (or retired) version. */
 export const treeUsageSchema = z.object({
+  tree: z.object({ id: z.string(), title: z.string() }),
   abandonedAfterDays: z.number(),
   versions: z.array(
     z.object({

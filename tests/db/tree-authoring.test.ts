@@ -5,6 +5,7 @@ import { createUser } from '@/db/users';
 import { AppError } from '@/lib/errors';
 import { reachOf, type OperationName, type Scope } from '@/lib/policy';
 import { ROLES, type Role } from '@/lib/roles';
+import { getCompanyTreeUsage, getTreeUsage } from '@/lib/server/tree-usage';
 import { seed as seedTrees } from '@/seeds/02_fault_trees';
 import {
   approveVersion,
@@ -422,5 +423,103 @@ describe('built-in updates', () => {
     expect(builtinUpdateOf({ ...tree, builtinSeen: shipped })).toBeNull();
     expect(builtinUpdateOf({ ...tree, slug: 'our-own', builtinSeen: null })).toBeNull();
     expect(builtinUpdateOf({ ...tree, published: null, builtinSeen: 1 })).toBeNull();
+  });
+});
+
+describe('usage', () => {
+  it('counts diagnoses, findings and where they stopped per version; first-time fix and median time to a finding for the company', async () => {
+    const t = await published();
+    const [site] = await db('sites').insert({ company_id: companyId, name: 'Usage site', address: '1 Usage Rd' }).returning('id');
+    const unit = async (label: string) =>
+      (
+        await db('units')
+          .insert({
+            company_id: companyId,
+            site_id: site.id,
+            label,
+            ignition: 'two-rod',
+            fuel: 'natural-gas',
+            control_supply: '24v',
+            transformer_va: 40,
+          })
+          .returning('id')
+      )[0].id as string;
+    const [u1, u2, u3] = [await unit('U1'), await unit('U2'), await unit('U3')];
+    const day = 24 * 3600 * 1000;
+    const now = Date.now();
+    const call = async (unitId: string, fields: Record<string, unknown> = {}) =>
+      (
+        await db('service_calls')
+          .insert({ company_id: companyId, unit_id: unitId, complaint: 'No heat', ...fields })
+          .returning('id')
+      )[0].id as string;
+    // Closed 40 days ago and back 10 days later; closed 40 days ago and not back; closed 2 days ago.
+    const c1 = await call(u1, { status: 'closed', opened_at: new Date(now - 41 * day), closed_at: new Date(now - 40 * day) });
+    await call(u1, { opened_at: new Date(now - 30 * day) });
+    const c2 = await call(u2, { status: 'closed', opened_at: new Date(now - 41 * day), closed_at: new Date(now - 40 * day) });
+    await call(u3, { status: 'closed', opened_at: new Date(now - 3 * day), closed_at: new Date(now - 2 * day) });
+
+    const t0 = new Date(now - 39 * day).getTime();
+    const minutes = (m: number) => new Date(t0 + m * 60_000);
+    async function diagnosis(callId: string, fields: Record<string, unknown>, answers: [string, number][]) {
+      const [d] = await db('diagnoses')
+        .insert({ company_id: companyId, call_id: callId, tree_version_id: t.id, started_at: minutes(0), ...fields })
+        .returning('id');
+      let seq = 0;
+      for (const [stepId, at] of answers) {
+        seq += 1;
+        await db('answers').insert({
+          company_id: companyId,
+          diagnosis_id: d.id,
+          client_id: randomUUID(),
+          seq,
+          step_id: stepId,
+          step_kind: 'measure',
+          created_at: minutes(at),
+        });
+      }
+    }
+    const found = (finding: string) => ({ status: 'found', finding_step_id: finding, current_state: finding });
+    await diagnosis(c1, found('f-control-not-sensing'), [
+      ['line-voltage', 0],
+      ['flame-signal', 10],
+      ['verify--f-control-not-sensing', 40],
+    ]);
+    await diagnosis(c2, found('f-control-not-sensing'), [
+      ['line-voltage', 0],
+      ['flame-signal', 20],
+    ]);
+    await diagnosis(c2, found('f-no-line-power'), [
+      ['line-voltage', 0],
+      ['thermostat-call', 30],
+    ]);
+    await diagnosis(c1, { status: 'escalated', escalation_note: 'Reads nothing offered', current_state: 'flame-signal' }, [
+      ['line-voltage', 0],
+    ]);
+    // In progress on a closed call: abandoned, at the step its procedure leads to.
+    await diagnosis(c2, { status: 'in_progress', current_state: 'lock-out--spark-gap' }, []);
+
+    const usage = await getTreeUsage({ scope: scopeOf(people.lead), treeId: t.treeId });
+    const v = usage.versions.find((x) => x.id === t.id)!;
+    expect(v).toMatchObject({ diagnoses: 5, found: 3, escalated: 1, inProgress: 1 });
+    expect(v.findings.map((f) => [f.stepId, f.count])).toEqual([
+      ['f-control-not-sensing', 2],
+      ['f-no-line-power', 1],
+    ]);
+    expect(v.findings[0].title).toBe(DEFAULT_TREE_GRAPH.steps.find((s) => s.id === 'f-control-not-sensing')!.title);
+    expect(v.stops).toEqual(
+      expect.arrayContaining([
+        expect.objectContaining({ stepId: 'flame-signal', escalated: 1, abandoned: 0 }),
+        expect.objectContaining({ stepId: 'spark-gap', escalated: 0, abandoned: 1 }),
+      ]),
+    );
+
+    const company = await getCompanyTreeUsage({ scope: scopeOf(people.lead) });
+    expect(company.firstTimeFix).toMatchObject({ closed: 3, returned: 1, windowOpen: 1 });
+    expect(company.firstTimeFix.rate).toBeCloseTo(2 / 3);
+    // 10, 20 and 30 minutes from the first answer to the last tree step before the finding: median 20 min.
+    expect(company.timeToFinding).toEqual({ medianSeconds: 1200, diagnoses: 3 });
+    const month = company.months.flatMap((m) => m.findings).find((f) => f.stepId === 'f-control-not-sensing');
+    expect(month?.count).toBe(2);
   });
 });
