@@ -205,3 +205,43 @@ export function knex(args, env) {
 }
 
 export { chownSync };
+
+/**
+ * The local fakes (scripts/fakes.mjs) in a child process: an S3 store with its data in `s3Dir` and
+ * an SMTP sink writing into `mailDir`, on free loopback ports. A fake is not started when its
+ * service is configured from outside (S3_ENDPOINT, SMTP_HOST). Returns { env, stop }: `env` holds
+ * the S3_* / SMTP_* / MAIL_* variables for the app and the tests.
+ */
+export async function startFakes({ s3Dir, mailDir }) {
+  const { fakesEnv } = await import('./fakes.mjs');
+  const wantS3 = !process.env.S3_ENDPOINT;
+  const wantSmtp = !process.env.SMTP_HOST;
+  if (!wantS3 && !wantSmtp) return { env: {}, stop() {} };
+  const args = [path.join(root, 'scripts', 'fakes.mjs')];
+  if (wantS3) args.push('--s3-port', String(await freePort()), '--s3-dir', s3Dir);
+  if (wantSmtp) args.push('--smtp-port', String(await freePort()), '--mail-dir', mailDir);
+  const child = spawn(process.execPath, args, { cwd: root, stdio: ['pipe', 'pipe', 'inherit'] });
+  const ready = await new Promise((resolve, reject) => {
+    let out = '';
+    child.stdout.on('data', (chunk) => {
+      out += chunk;
+      const line = out.split('\n')[0];
+      if (out.includes('\n')) resolve(JSON.parse(line));
+    });
+    child.once('exit', (code) => reject(new Error(`The local fakes (scripts/fakes.mjs) exited with ${code}`)));
+  });
+  log(
+    [
+      wantS3 && `S3 fake on 127.0.0.1:${ready.s3Port}`,
+      wantSmtp && `SMTP sink on 127.0.0.1:${ready.smtpPort} → ${path.relative(root, mailDir) || mailDir}`,
+    ]
+      .filter(Boolean)
+      .join(', '),
+  );
+  return {
+    env: fakesEnv({ s3Port: ready.s3Port, smtpPort: ready.smtpPort, mailDir }),
+    stop() {
+      if (child.exitCode === null) child.kill('SIGTERM');
+    },
+  };
+}

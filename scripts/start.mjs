@@ -17,6 +17,7 @@ import {
   serverEnv,
   spawnChild,
   startCluster,
+  startFakes,
   waitForHttp,
 } from './lib.mjs';
 
@@ -76,12 +77,14 @@ async function main() {
   const bin = ensurePostgres();
   const cluster = await startCluster({ bin, dir: path.join(root, '.data', 'postgres'), port: pgPort });
   let app;
+  let fakes;
   let stopping = false;
   const stop = (code = 0) => {
     if (stopping) return;
     stopping = true;
     log('Stopping…');
     if (app && app.exitCode === null) app.kill('SIGTERM');
+    fakes?.stop();
     cluster.stop();
     log(cluster.startedHere ? 'Stopped the app and PostgreSQL.' : 'Stopped the app (PostgreSQL was already running and is left running).');
     process.exit(code);
@@ -90,8 +93,11 @@ async function main() {
   process.on('SIGTERM', () => stop(0));
   try {
     const databaseUrl = process.env.DATABASE_URL ?? ensureDatabase(bin, pgPort, 'proving_ground');
+    // The S3 store and SMTP sink on loopback, unless a real bucket / mail server is configured.
+    fakes = await startFakes({ s3Dir: path.join(root, '.data', 's3'), mailDir: path.join(root, '.data', 'mail') });
     const env = {
       ...process.env,
+      ...fakes.env,
       DATABASE_URL: databaseUrl,
       SESSION_SECRET: process.env.SESSION_SECRET ?? ensureDevSecret(),
       APP_URL: process.env.APP_URL ?? `http://${host}:${port}`,

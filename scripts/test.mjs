@@ -19,6 +19,7 @@ import {
   serverEnv,
   spawnChild,
   startCluster,
+  startFakes,
   waitForHttp,
 } from './lib.mjs';
 
@@ -57,9 +58,11 @@ async function main() {
   const pgPort = await freePort();
   const cluster = await startCluster({ bin, dir: tmp, port: pgPort, throwaway: true });
   let app;
+  let fakes;
   let ok = true;
   const cleanup = () => {
     if (app && app.exitCode === null) app.kill('SIGTERM');
+    fakes?.stop();
     cluster.stop();
     rmSync(tmp, { recursive: true, force: true });
   };
@@ -69,8 +72,11 @@ async function main() {
   });
   try {
     const databaseUrl = ensureDatabase(bin, pgPort, 'proving_ground_test');
+    // The S3 store and SMTP sink on loopback, in the throwaway directory (unless configured from outside).
+    fakes = await startFakes({ s3Dir: path.join(tmp, 's3'), mailDir: path.join(tmp, 'mail') });
     const env = {
       ...process.env,
+      ...fakes.env,
       DATABASE_URL: databaseUrl,
       // A throwaway database; the schema tests create and drop their own databases beside it.
       TEST_PG_ADMIN_URL: `postgres://postgres@127.0.0.1:${pgPort}/postgres`,
