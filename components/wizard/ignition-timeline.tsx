@@ -1,18 +1,6 @@
 import clsx from 'clsx';
 import { DEFAULT_CONTROL_PROFILE, describeSequence, type ControlProfile } from '@/machines/ignition-sequence-machine';
 
-// Steps whose reading depends on when in the control's sequence it is taken.
-export const TIMELINE_STEPS = new Set([
-  'spark-observe',
-  'valve-voltage',
-  'control-valve-output',
-  'inlet-pressure',
-  'manifold-pressure',
-  'lp-inlet-pressure',
-  'lp-manifold-pressure',
-  'burners-light',
-]);
-
 function secondsText(ms: number) {
   return `${Math.round(ms / 100) / 10} s`;
 }

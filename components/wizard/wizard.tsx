@@ -5,7 +5,16 @@ import clsx from 'clsx';
 import { useEffect, useMemo, useRef, useState } from 'react';
 import { fromPromise } from 'xstate';
 import { findBand, latestReadings, shiftedBands } from '@/lib/bands';
-import type { ActionStep, EnergyState, FindingStep, InspectStep, MeasureStep, TreeVersion, UnitFacts } from '@/lib/trees/schema';
+import {
+  showsIgnitionTimeline,
+  type ActionStep,
+  type EnergyState,
+  type FindingStep,
+  type InspectStep,
+  type MeasureStep,
+  type TreeVersion,
+  type UnitFacts,
+} from '@/lib/trees/schema';
 import type { Role } from '@/lib/roles';
 import { displayUnitFor, OVER_RANGE_ENTRY, type UnitSystem } from '@/lib/units';
 import { fetcher } from '@/lib/swr/fetcher';
@@ -25,7 +34,7 @@ import { EscalateStep } from '@/components/wizard/escalate-step';
 import { ActionBar } from '@/components/wizard/action-bar';
 import { ElectricalAids } from '@/components/wizard/electrical-aids';
 import { FindingScreen } from '@/components/wizard/finding-screen';
-import { IgnitionTimeline, TIMELINE_STEPS } from '@/components/wizard/ignition-timeline';
+import { IgnitionTimeline } from '@/components/wizard/ignition-timeline';
 import { PathSoFar } from '@/components/wizard/path-so-far';
 import { ProcedureChecklist } from '@/components/wizard/procedure-checklist';
 import { parseEntry, ReadingEntry, type ReadingValue } from '@/components/wizard/reading-entry';
@@ -429,7 +438,7 @@ function StepScreen({
           onConfirm={() => onAnswer({ stepId: step.id, confirmed: true })}
         />
       )}
-      {TIMELINE_STEPS.has(step.id) && <IgnitionTimeline />}
+      {showsIgnitionTimeline(step) && <IgnitionTimeline />}
       <WhyThisStep why={step.why} defaultOpen={whyOpen} />
       {footer}
     </div>

@@ -98,6 +98,11 @@ const stepBase = {
    * validator refuses a step that handles a source it does not need off.
    */
   handles: z.array(z.enum(ENERGY_SOURCES)).default([]),
+  /**
+   * The wizard shows the control's ignition sequence beside this step (a reading or a look whose
+   * answer depends on when in the sequence it is taken). Left out: see `showsIgnitionTimeline`.
+   */
+  timeline: z.boolean().optional(),
 };
 
 /** Computation aids the wizard offers beside a measure step. */
@@ -221,4 +226,25 @@ export interface TreeVersion {
   id: string;
   version: number;
   graph: TreeGraph;
+}
+
+/**
+ * The steps of the built-in tree's revisions 1 and 2 that show the ignition sequence: published
+ * before steps said so themselves (`timeline`), and a published graph never changes. A step that
+ * sets `timeline` decides for itself; this list answers only for a step that does not.
+ */
+const TIMELINE_BEFORE_THE_ATTRIBUTE: ReadonlySet<string> = new Set([
+  'spark-observe',
+  'valve-voltage',
+  'control-valve-output',
+  'inlet-pressure',
+  'manifold-pressure',
+  'lp-inlet-pressure',
+  'lp-manifold-pressure',
+  'burners-light',
+]);
+
+/** Whether the wizard shows the ignition sequence beside a step. */
+export function showsIgnitionTimeline(step: { id: string; timeline?: boolean }): boolean {
+  return step.timeline ?? TIMELINE_BEFORE_THE_ATTRIBUTE.has(step.id);
 }
