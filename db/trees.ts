@@ -562,3 +562,24 @@ export async function listAuthoringTrees({ companyId }: { companyId: string }, t
     };
   });
 }
+
+/** Versions waiting for a review (submitted) or for publishing (approved) that `userId` may act on: not their own. */
+export async function listWaitingReviews({ companyId, userId }: { companyId: string; userId: string }, trx: Knex = db) {
+  const rows = await trx('tree_versions as v')
+    .join('fault_trees as t', 't.id', 'v.tree_id')
+    .leftJoin('users as u', 'u.id', 'v.submitted_by')
+    .where('v.company_id', companyId)
+    .whereIn('v.status', ['in_review', 'approved'])
+    .andWhere((w) => w.whereNull('v.author_id').orWhereNot('v.author_id', userId))
+    .orderBy('v.submitted_at')
+    .select('v.id', 'v.tree_id', 't.title', 'v.version', 'v.status', 'v.submitted_at', 'u.name as submitted_by_name');
+  return rows.map((r: Record<string, unknown>) => ({
+    id: r.id as string,
+    treeId: r.tree_id as string,
+    title: r.title as string,
+    version: r.version as number,
+    status: r.status as TreeVersionStatus,
+    submittedAt: (r.submitted_at as Date | null) ?? null,
+    submittedBy: (r.submitted_by_name as string | null) ?? null,
+  }));
+}

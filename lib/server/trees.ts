@@ -10,6 +10,7 @@ import {
   listAuthoringTrees,
   listTreeEvents,
   listTreeVersions,
+  listWaitingReviews,
   moveVersion,
   recordTreeEvent,
   retirePublished,
@@ -134,6 +135,11 @@ export async function getTreeForAuthoring({ scope, treeId }: { scope: Scope; tre
     events,
     builtinUpdate: builtinUpdateOf({ slug: tree.slug, published, builtinSeen }),
   };
+}
+
+/** A lead's home: the versions waiting for their review (submitted by someone else) or for publishing. */
+export async function listReviewsWaiting({ scope }: { scope: Scope }) {
+  return listWaitingReviews({ companyId: scope.companyId, userId: scope.userId });
 }
 
 export async function validateVersion({ scope, id }: { scope: Scope; id: string }) {

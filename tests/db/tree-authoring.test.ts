@@ -16,6 +16,7 @@ import {
   getTreeForAuthoring,
   getVersionForAuthoring,
   importTree,
+  listReviewsWaiting,
   listTreesForAuthoring,
   publishVersion,
   readTreeVersion,
@@ -327,6 +328,16 @@ describe('the workflow', () => {
     expect(publishes.filter((r) => r.status === 'fulfilled')).toHaveLength(1);
     expect(((publishes.find((r) => r.status === 'rejected') as PromiseRejectedResult).reason as AppError).code).toBe('conflict');
     expect(await db('tree_versions').where({ tree_id: t.treeId, status: 'published' }).count('* as n').first()).toEqual({ n: '1' });
+  });
+});
+
+describe('reviews waiting', () => {
+  it('lists a submitted version for the other leads and admins, not for its author', async () => {
+    const t = await treeWithDraft(people.lead);
+    await submitVersion({ scope: scopeOf(people.lead), id: t.id, who: 'lead' });
+    expect((await listReviewsWaiting({ scope: scopeOf(people.lead2) })).map((r) => r.id)).toContain(t.id);
+    expect((await listReviewsWaiting({ scope: scopeOf(people.admin) })).map((r) => r.id)).toContain(t.id);
+    expect((await listReviewsWaiting({ scope: scopeOf(people.lead) })).map((r) => r.id)).not.toContain(t.id);
   });
 });
 
