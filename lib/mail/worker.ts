@@ -71,7 +71,8 @@ export function createOutboxWorker({ store, send, intervalMs = 5000, retryBaseMs
             round++;
           } catch (error) {
             const reason = failureReason(error);
-            log(`outbox: ${d.id} attempt ${d.attempts} failed: ${reason}`);
+            // Once per message: the call page shows every later attempt, and a long outage would flood the log.
+            if (d.attempts === 1) log(`outbox: ${d.id} not sent, retrying with backoff: ${reason}`);
             await store.failed(d.id, reason, retryDelayMs(d.attempts, retryBaseMs));
           }
         }
