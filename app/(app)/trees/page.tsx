@@ -1,15 +1,30 @@
 import type { Metadata } from 'next';
-import { ComingLater } from '@/components/shell/coming-later';
-import { requirePageUser } from '@/lib/server/guard';
+import { TreeList } from '@/components/trees/tree-list';
+import { may } from '@/lib/policy';
+import { pageScope } from '@/lib/server/operation';
+import { listTreesForAuthoring } from '@/lib/server/trees';
+import { authoringTreeListSchema } from '@/lib/validations/api';
+import { createTreeAction, importTreeAction, startDraftAction } from './actions';
 
 export const metadata: Metadata = { title: 'Fault trees' };
 
 export default async function TreesPage() {
-  await requirePageUser({ page: '/trees' });
+  const { user, scope } = await pageScope('trees.authoring');
+  const trees = authoringTreeListSchema.parse(await listTreesForAuthoring({ scope }));
   return (
-    <ComingLater title="Fault trees">
-      Leads will edit steps and outcomes here, send drafts to another lead for review, run the isolation check on the bench and publish new
-      versions. Until then every diagnosis runs the published default tree, “No heat — direct spark ignition”.
-    </ComingLater>
+    <div className="space-y-6">
+      <div>
+        <h1 className="page-title">Fault trees</h1>
+        <p className="text-muted">
+          The trees diagnoses run on. A change is made in a draft, checked as you edit, reviewed by another lead or an admin, and published;
+          a diagnosis keeps the version it started on.
+        </p>
+      </div>
+      <TreeList
+        trees={trees}
+        canEdit={may(user.role, 'trees.create')}
+        actions={{ createTree: createTreeAction, startDraft: startDraftAction, importTree: importTreeAction }}
+      />
+    </div>
   );
 }

@@ -262,3 +262,89 @@ export function editorProblems(graph: TreeGraph): GraphProblem[] {
   }
   return [...problems, ...rest];
 }
+
+// ---- Stored drafts
+
+type Loose = Record<string, unknown>;
+
+/**
+ * A draft's graph as stored (it may not pass the schema yet) in the shape the editor works on: the
+ * lists every kind has filled in, so the form and the canvas can show it and the lead can fix it.
+ */
+export function editableGraph(stored: { start: string; steps: Loose[]; afterRepair?: unknown[] }): TreeGraph {
+  const parsed = treeGraphSchema.safeParse(stored);
+  if (parsed.success) return parsed.data;
+  const steps = stored.steps.map((raw) => {
+    const s: Loose = { ...raw };
+    s.id = typeof s.id === 'string' ? s.id : '';
+    s.title = typeof s.title === 'string' ? s.title : '';
+    s.instruction = typeof s.instruction === 'string' ? s.instruction : '';
+    s.cautions = Array.isArray(s.cautions) ? s.cautions : [];
+    s.handles = Array.isArray(s.handles) ? s.handles : [];
+    const energy = (s.energy ?? {}) as Loose;
+    s.energy = { electric: energy.electric ?? 'any', gas: energy.gas ?? 'any' };
+    const kind = ['measure', 'inspect', 'action', 'fact', 'finding'].includes(s.kind as string) ? (s.kind as StepKind) : 'action';
+    s.kind = kind;
+    const list = (k: string) => (s[k] = Array.isArray(s[k]) ? s[k] : []);
+    if (kind === 'measure') {
+      list('bands');
+      list('aids');
+      s.points = Array.isArray(s.points) ? s.points : ['', ''];
+      s.quantity = s.quantity ?? 'vac';
+    }
+    if (kind === 'inspect') list('choices');
+    if (kind === 'fact') {
+      list('cases');
+      s.fact = s.fact ?? 'ignition';
+    }
+    if (kind === 'action') {
+      list('checklist');
+      s.outcome = typeof s.outcome === 'string' ? s.outcome : '';
+    }
+    if (kind === 'finding') {
+      for (const k of ['parts', 'verification', 'tags', 'expects']) list(k);
+      s.explanation = s.explanation ?? '';
+      s.remedy = s.remedy ?? '';
+    }
+    return s as unknown as Step;
+  });
+  return {
+    start: stored.start,
+    steps,
+    afterRepair: (Array.isArray(stored.afterRepair) ? stored.afterRepair : []) as TreeGraph['afterRepair'],
+  };
+}
+
+/** How two graphs differ step by step: what only one of them has, and what both have but differently. */
+export interface StepConflict {
+  stepId: string;
+  mine: Step | null;
+  theirs: Step | null;
+}
+
+export function stepConflicts(mine: TreeGraph, theirs: TreeGraph): StepConflict[] {
+  const a = new Map(mine.steps.map((s) => [s.id, s]));
+  const b = new Map(theirs.steps.map((s) => [s.id, s]));
+  const ids = [...new Set([...a.keys(), ...b.keys()])];
+  return ids
+    .filter((id) => JSON.stringify(a.get(id) ?? null) !== JSON.stringify(b.get(id) ?? null))
+    .map((id) => ({ stepId: id, mine: a.get(id) ?? null, theirs: b.get(id) ?? null }));
+}
+
+/**
+ * Theirs with the lead's chosen steps taken from mine: `pick` says, per conflicting step, whose
+ * version to keep (a step missing from the chosen side is left out).
+ */
+export function mergeGraphs(mine: TreeGraph, theirs: TreeGraph, pick: Record<string, 'mine' | 'theirs'>): TreeGraph {
+  const conflicts = new Map(stepConflicts(mine, theirs).map((c) => [c.stepId, c]));
+  const order = [...theirs.steps.map((s) => s.id), ...mine.steps.map((s) => s.id).filter((id) => !theirs.steps.some((s) => s.id === id))];
+  const steps: Step[] = [];
+  for (const id of order) {
+    const c = conflicts.get(id);
+    const step = c ? (pick[id] === 'mine' ? c.mine : c.theirs) : (theirs.steps.find((s) => s.id === id) ?? null);
+    if (step) steps.push(step);
+  }
+  const start =
+    steps.some((s) => s.id === mine.start) && mine.start !== theirs.start && pick[mine.start] === 'mine' ? mine.start : theirs.start;
+  return { start, steps, afterRepair: theirs.afterRepair };
+}

@@ -124,10 +124,9 @@ function CanvasInner({
   const flow = useReactFlow();
   useEffect(() => {
     if (!focus) return;
-    // After the layout of the change that asked for it.
-    const t = window.setTimeout(() => void flow.fitView({ nodes: [{ id: focus.id }], duration: 300, maxZoom: 1.2 }), 50);
-    return () => window.clearTimeout(t);
-  }, [focus, flow]);
+    const at = positions.get(focus.id);
+    if (at) void flow.setCenter(at.x + NODE_WIDTH / 2, at.y + NODE_HEIGHT / 2, { zoom: 1, duration: 300 });
+  }, [focus, flow, positions]);
   const nodes = useMemo<StepNode[]>(
     () =>
       graph.steps.map((step) => ({

@@ -148,6 +148,19 @@ export function TreeEditor({ versionId, revision, savedGraph, initialGraph, read
             ))}
           </>
         )}
+        <select
+          aria-label="Go to a step"
+          className="input w-auto max-w-[16rem]"
+          value=""
+          onChange={(e) => e.target.value && select(e.target.value, true)}
+        >
+          <option value="">Go to a step…</option>
+          {graph.steps.map((s) => (
+            <option key={s.id} value={s.id}>
+              {s.id}
+            </option>
+          ))}
+        </select>
         <div className="ml-auto flex flex-wrap items-center gap-2">{toolbar}</div>
       </div>
 
@@ -176,7 +189,7 @@ export function TreeEditor({ versionId, revision, savedGraph, initialGraph, read
           onClick={() => setShowProblems((v) => !v)}
         >
           {problems.length === 0 ? (
-            <span>No problems: this draft can be submitted for review.</span>
+            <span>{readOnly ? 'No problems in this version.' : 'No problems: this draft can be submitted for review.'}</span>
           ) : (
             <span>
               <span aria-hidden>⚠</span> {problems.length} problem{problems.length === 1 ? '' : 's'}: the draft saves, but cannot be

@@ -1,8 +1,10 @@
 import { describe, expect, it } from 'vitest';
 import {
   deleteStep,
+  editableGraph,
   editorProblems,
   layoutGraph,
+  mergeGraphs,
   moveBoundary,
   newStep,
   removeBand,
@@ -10,6 +12,7 @@ import {
   setSlotTarget,
   slotsOf,
   splitBand,
+  stepConflicts,
 } from '@/components/trees/editor/graph-edit';
 import { checkBandCoverage } from '@/lib/bands';
 import { DEFAULT_TREE_GRAPH } from '@/lib/trees/default-tree';
@@ -104,5 +107,40 @@ describe('layout', () => {
     for (const step of DEFAULT_TREE_GRAPH.steps) {
       for (const slot of slotsOf(step)) expect(pos.get(slot.target)!.y).toBeGreaterThan(pos.get(step.id)!.y);
     }
+  });
+});
+
+describe('merging two saves of one draft', () => {
+  const retitle = (g: TreeGraph, id: string, title: string): TreeGraph => ({
+    ...g,
+    steps: g.steps.map((s) => (s.id === id ? { ...s, title } : s)),
+  });
+
+  it('lists the steps that differ and takes each from the side picked', () => {
+    const mine = retitle(DEFAULT_TREE_GRAPH, 'carry-over', 'Mine');
+    const theirs = retitle(DEFAULT_TREE_GRAPH, 'flame-signal', 'Theirs');
+    const conflicts = stepConflicts(mine, theirs);
+    expect(conflicts.map((c) => c.stepId).sort()).toEqual(['carry-over', 'flame-signal']);
+    const merged = mergeGraphs(mine, theirs, { 'carry-over': 'mine', 'flame-signal': 'theirs' });
+    expect(merged.steps.find((s) => s.id === 'carry-over')?.title).toBe('Mine');
+    expect(merged.steps.find((s) => s.id === 'flame-signal')?.title).toBe('Theirs');
+    expect(merged.steps).toHaveLength(DEFAULT_TREE_GRAPH.steps.length);
+  });
+
+  it('keeps a step only one side added when that side is picked, and drops it otherwise', () => {
+    const step = newStep(DEFAULT_TREE_GRAPH, 'finding');
+    const mine = { ...DEFAULT_TREE_GRAPH, steps: [...DEFAULT_TREE_GRAPH.steps, step] };
+    expect(mergeGraphs(mine, DEFAULT_TREE_GRAPH, { [step.id]: 'mine' }).steps.some((s) => s.id === step.id)).toBe(true);
+    expect(mergeGraphs(mine, DEFAULT_TREE_GRAPH, { [step.id]: 'theirs' }).steps.some((s) => s.id === step.id)).toBe(false);
+  });
+});
+
+describe('a stored draft that does not parse yet', () => {
+  it('is given the lists the editor needs, and its problems are still listed', () => {
+    const graph = editableGraph({ start: 'a', steps: [{ id: 'a', kind: 'inspect', title: 'Look' }] });
+    const step = graph.steps[0];
+    expect(step.kind === 'inspect' && step.choices).toEqual([]);
+    expect(step.cautions).toEqual([]);
+    expect(editorProblems(graph).some((p) => p.message.includes('at least two choices'))).toBe(true);
   });
 });
