@@ -5,6 +5,7 @@ import { Time } from '@/components/ui/time-zone';
 import { FormMessage } from '@/components/ui/field';
 import { ApprenticeHome } from '@/components/practice/apprentice-home';
 import { TrainerHome } from '@/components/practice/trainer-home';
+import { ReviewQueue } from '@/components/trees/review-queue';
 import { apprenticeHomeData, trainerHomeData } from '@/lib/server/practice';
 import { may } from '@/lib/policy';
 import { ROLE_LABELS, type Role } from '@/lib/roles';
@@ -12,6 +13,7 @@ import { listEscalations } from '@/db/diagnoses';
 import { findCalls } from '@/lib/server/calls';
 import { requirePageUser, type CurrentUser } from '@/lib/server/guard';
 import { authorize } from '@/lib/server/operation';
+import { listReviewsWaiting } from '@/lib/server/trees';
 
 export const metadata: Metadata = { title: 'Home' };
 
@@ -79,6 +81,9 @@ export default async function HomePage({ searchParams }: { searchParams: Promise
         <p className="text-muted">{user.companyName}</p>
       </div>
       {may(user.role, 'diagnoses.escalations') && <Escalations />}
+      {may(user.role, 'trees.authoring') && (
+        <ReviewQueue reviews={await listReviewsWaiting({ scope: (await authorize('trees.authoring')).scope })} />
+      )}
       {may(user.role, 'calls.list') && <OpenCalls user={user} />}
       {user.role === 'trainer' && <TrainerHome {...await trainerHomeData()} />}
       {user.role === 'apprentice' && <ApprenticeHome {...await apprenticeHomeData()} />}

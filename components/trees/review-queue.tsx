@@ -1,38 +1,45 @@
 import Link from 'next/link';
 import { Time } from '@/components/ui/time-zone';
-import type { AuthoringTreeOut } from '@/lib/validations/api';
+import type { TreeVersionStatusOut } from '@/lib/validations/api';
 
-/**
- * A lead's home: drafts other people submitted, waiting for this lead's review, and approved
- * versions waiting to be published. Their own submissions are not listed: someone else approves them.
- */
-export function ReviewQueue({ trees, userId }: { trees: AuthoringTreeOut[]; userId: string }) {
-  const waiting = trees.flatMap((tree) =>
-    tree.openVersions
-      .filter((v) => (v.status === 'in_review' && v.author?.id !== userId) || v.status === 'approved')
-      .map((v) => ({ tree, v })),
-  );
+/** One version waiting on this lead: submitted by someone else for review, or approved and not yet published. */
+export interface WaitingReview {
+  id: string;
+  title: string;
+  version: number;
+  status: TreeVersionStatusOut;
+  submittedAt: Date | string | null;
+  submittedBy: string | null;
+}
+
+/** A lead's home: drafts other people submitted, waiting for this lead's review, and approved versions to publish. */
+export function ReviewQueue({ reviews }: { reviews: WaitingReview[] }) {
   return (
-    <section aria-labelledby="review-queue" className="space-y-3">
-      <h2 id="review-queue" className="text-xl font-bold">
-        Fault trees waiting for you
+    <section aria-labelledby="review-queue" className="card space-y-3">
+      <h2 id="review-queue" className="text-lg font-bold">
+        Fault trees waiting for you: <span className="font-mono">{reviews.length}</span>
       </h2>
-      {waiting.length === 0 ? (
-        <p className="card text-muted">No drafts wait for your review.</p>
+      {reviews.length === 0 ? (
+        <p className="text-muted">No drafts wait for your review.</p>
       ) : (
         <ul className="space-y-2">
-          {waiting.map(({ tree, v }) => (
+          {reviews.map((v) => (
             <li key={v.id}>
               <Link
                 href={`/trees/versions/${v.id}`}
-                className="card flex min-h-touch flex-wrap items-center gap-x-3 gap-y-1 hover:bg-sunken"
+                className="flex min-h-touch flex-wrap items-center gap-x-3 gap-y-1 rounded-lg border border-line bg-surface px-3 py-2 hover:border-copper"
               >
                 <span className="font-semibold">
-                  {tree.title}, version {v.version}
+                  {v.title}, version {v.version}
                 </span>
                 <span className="text-sm text-muted">
-                  {v.status === 'in_review' ? `submitted by ${v.author?.name ?? 'a lead'}` : 'approved, ready to publish'} ·{' '}
-                  <Time value={v.updatedAt} />
+                  {v.status === 'in_review' ? `submitted by ${v.submittedBy ?? 'a lead'}` : 'approved, ready to publish'}
+                  {v.submittedAt && (
+                    <>
+                      {' · '}
+                      <Time value={v.submittedAt} />
+                    </>
+                  )}
                 </span>
                 <span className="ml-auto font-semibold">{v.status === 'in_review' ? 'Review' : 'Publish'} →</span>
               </Link>
