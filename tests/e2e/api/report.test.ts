@@ -142,7 +142,7 @@ describe('the report by e-mail', () => {
 
   it('retries while the mail server is down and delivers exactly once when it is back', async (ctx) => {
     if (!sink.own || !sink.dir) {
-      console.warn('The SMTP sink is run by another process here: the outage is tested in tests/db/outbox.test.ts instead.');
+      console.warn('No SMTP sink this test can take down (MAIL_SINK_DIR unset): the outage is tested in tests/db/outbox.test.ts only.');
       return ctx.skip();
     }
     await sink.own.stop();
@@ -160,7 +160,8 @@ describe('the report by e-mail', () => {
         const m = await outboxStatus(tech, visit.callId, id);
         return m && m.attempts >= 1 && m.status === 'queued' && m.lastError ? m : null;
       });
-      expect(waiting.lastError).toMatch(/refused the connection/);
+      // Our own sink is simply gone; the test command's sink answers 421 while it is down.
+      expect(waiting.lastError).toMatch(/refused the connection|answered 421/);
     } finally {
       await sink.own.start();
     }
