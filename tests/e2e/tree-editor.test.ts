@@ -88,6 +88,9 @@ afterAll(async () => {
 });
 
 it('a lead edits a copy of the default tree, a second lead reviews the diff, approves and publishes', async () => {
+  await a.goto('/trees');
+  await a.locator('[data-tree="no-heat-dsi"]').waitFor();
+  await shot(a, '00-tree-list');
   const versionId = await startDraftFromPublished(a);
   await shot(a, '01-editor-landscape');
 
@@ -130,8 +133,11 @@ it('a lead edits a copy of the default tree, a second lead reviews the diff, app
   const own = await lead.post(`/api/tree-versions/${versionId}/approve`, {});
   expect(own.status).toBe(403);
 
-  // The second lead: the diff against the version it was copied from, then approve and publish.
-  await b.goto(`/trees/versions/${versionId}`);
+  // The second lead finds it on their home page, then sees the diff against the version it was copied from.
+  await b.goto('/');
+  const queue = b.locator('section[aria-labelledby="review-queue"]');
+  await queue.locator(`a[href="/trees/versions/${versionId}"]`).click();
+  await b.waitForURL(new RegExp(`/trees/versions/${versionId}$`));
   await b.getByRole('link', { name: 'What changed from the version it was copied from' }).click();
   const diff = b.getByTestId('diff-list');
   await diff.getByText('new-inspect', { exact: true }).first().waitFor();
