@@ -106,8 +106,26 @@ export const POLICY = {
   'practice.attempts.get': { roles: { apprentice: 'own', trainer: 'company', lead: 'company', admin: 'company' } },
   'practice.attempts.finish': { roles: { apprentice: 'own' } },
   'practice.progress': { roles: { trainer: 'company', lead: 'company', admin: 'company' } },
+  // The bench of a running attempt: only its apprentice works it (the score is read from what it stores).
+  'practice.bench.get': { roles: { apprentice: 'own' } },
+  'practice.bench.act': { roles: { apprentice: 'own' } },
+  'practice.bench.measure': { roles: { apprentice: 'own' } },
+  'practice.bench.observe': { roles: { apprentice: 'own' } },
+  // The bench itself (h9core): anyone signed in practises on sessions of their own; another user's
+  // session is not found. Which fault a session runs is told only to trainers, leads and admins.
+  'bench.sessions.create': { roles: { apprentice: 'own', technician: 'own', lead: 'own', trainer: 'own', admin: 'own' } },
+  'bench.sessions.get': { roles: { apprentice: 'own', technician: 'own', lead: 'own', trainer: 'own', admin: 'own' } },
+  'bench.sessions.act': { roles: { apprentice: 'own', technician: 'own', lead: 'own', trainer: 'own', admin: 'own' } },
+  'bench.sessions.measure': { roles: { apprentice: 'own', technician: 'own', lead: 'own', trainer: 'own', admin: 'own' } },
+  'bench.sessions.observe': { roles: { apprentice: 'own', technician: 'own', lead: 'own', trainer: 'own', admin: 'own' } },
+  'bench.faults': { roles: everyone },
 
   // ── Photos, the report as PDF, and e-mail ──
+  // Photos (h10a): whoever may see the call, with the call's reach, adds, sees and (while the call is open) removes its photos.
+  'attachments.upload': { roles: callWork },
+  'attachments.list': { roles: callWork },
+  'attachments.get': { roles: callWork },
+  'attachments.delete': { roles: callWork },
   // The report as PDF: whoever may see the call (customer copy by default, ?version=office).
   'reports.pdf': { roles: callWork },
   // E-mailing the report is a technician's job and up: an apprentice's report goes out once a technician has it.

@@ -38,9 +38,11 @@ async function send<S extends ZodType>(url: string, schema: S, body?: unknown): 
   return parsed.data;
 }
 
-/** The bench API of issue 9 over HTTP, for one session. */
-export function httpBenchClient(sessionId: string): BenchClient {
-  const base = `/api/bench/sessions/${encodeURIComponent(sessionId)}`;
+/**
+ * A bench over HTTP, at `base`: a session of the bench API (`/api/bench/sessions/{id}`) or the bench
+ * of a practice attempt (`/api/practice/attempts/{id}/bench`); both answer the same four requests.
+ */
+export function httpBenchClient(base: string): BenchClient {
   return {
     state: () => send(base, benchStateSchema),
     act: (action, seconds) => send(`${base}/actions`, benchActionReplySchema, seconds === undefined ? { action } : { action, seconds }),

@@ -10,14 +10,15 @@ import type { ActionResult } from '@/lib/validations/api';
 import { finishAttemptSchema, type AttemptOutput } from '@/lib/validations/practice';
 
 interface Props {
-  attempt: Pick<AttemptOutput, 'id' | 'benchSessionId' | 'unit' | 'findings'>;
+  attempt: Pick<AttemptOutput, 'id' | 'unit' | 'findings'>;
   finish: (input: unknown) => Promise<ActionResult<AttemptOutput>>;
 }
 
 /** An apprentice's running attempt: the bench, then the finding the walk reached, sent once for scoring. */
 export function AttemptRunner({ attempt, finish }: Props) {
   const router = useRouter();
-  const client = useMemo(() => httpBenchClient(attempt.benchSessionId), [attempt.benchSessionId]);
+  // The attempt's own bench: only its apprentice works it, and it closes when the attempt is scored.
+  const client = useMemo(() => httpBenchClient(`/api/practice/attempts/${encodeURIComponent(attempt.id)}/bench`), [attempt.id]);
   const [findingStepId, setFinding] = useState('');
   const [error, setError] = useState<string | null>(null);
   const [confirming, setConfirming] = useState(false);

@@ -1,5 +1,6 @@
 import 'server-only';
-import { createBenchSession, listBenchEvents, type BenchEventRecord } from '@/db/bench';
+import { appendBenchEvent, createBenchSession, getBenchSession, listBenchEvents, type BenchEventRecord } from '@/db/bench';
+import { db } from '@/db/knex';
 import {
   assignScenario,
   createAttempt,
@@ -17,7 +18,17 @@ import {
 } from '@/db/practice';
 import { AppError } from '@/lib/errors';
 import type { Scope } from '@/lib/policy';
-import { FAULTS, faultFits, getFault } from '@/lib/bench';
+import {
+  BenchRefusal,
+  createBench,
+  FAULTS,
+  faultFits,
+  getFault,
+  type Bench,
+  type BenchAction,
+  type MeasureRequest,
+  type ObservationKind,
+} from '@/lib/bench';
 import { findingChoices, findingsWithTags, readingsToFinding } from '@/lib/practice/findings';
 import { scoreAttempt, type PracticeEvent } from '@/lib/practice/scoring';
 import type { CurrentUser } from '@/lib/server/guard';
@@ -296,4 +307,74 @@ export async function apprenticeProgress({ scope, apprenticeId }: { scope: Scope
     isolated: [...isolated.values()],
     awaitingSignOff: awaiting.map((d) => ({ ...d, at: d.at.toISOString() })),
   };
+}
+
+// ── Working the bench of a running attempt ──────────────────────────────────────────────────────
+// The apprentice's own attempt, while it runs: the session is replayed from its events under its row
+// lock, the new action or reading is taken, and stored as the next event (what the score reads).
+
+type BenchStep = {
+  kind: 'action' | 'measure' | 'observe';
+  payload: Record<string, unknown>;
+  result: Record<string, unknown>;
+  simTime: number;
+};
+
+function replay(bench: Bench, events: readonly BenchEventRecord[]) {
+  for (const e of events) {
+    const p = e.payload;
+    if (e.kind === 'action') bench.act(p.action as BenchAction, typeof p.seconds === 'number' ? p.seconds : undefined);
+    else if (e.kind === 'measure') bench.measure(p as unknown as MeasureRequest);
+    else bench.observe(p.what as ObservationKind);
+  }
+}
+
+async function onAttemptBench<T>(
+  { user, scope, id }: { user: CurrentUser; scope: Scope; id: string },
+  work: (bench: Bench) => { step: BenchStep | null; answer: T },
+): Promise<T> {
+  const a = await getAttempt({ scope, id });
+  if (a.apprentice.id !== user.id) throw new AppError('forbidden', 'Only the apprentice running the attempt works its bench.');
+  if (a.finishedAt) throw new AppError('conflict', 'This attempt is finished and scored: its bench is closed.');
+  return db.transaction(async (trx) => {
+    const own: Scope = { companyId: user.companyId, userId: user.id, reach: 'own' };
+    const session = await getBenchSession({ scope: own, id: a.benchSessionId, lock: true }, trx);
+    const events = await listBenchEvents({ companyId: user.companyId, sessionId: session.id }, trx);
+    const bench = createBench({ unit: session.unit, faultId: session.faultId, seed: session.seed });
+    replay(bench, events);
+    let outcome: { step: BenchStep | null; answer: T };
+    try {
+      outcome = work(bench);
+    } catch (error) {
+      if (error instanceof BenchRefusal) throw new AppError('bad_request', error.message);
+      throw error;
+    }
+    if (outcome.step) await appendBenchEvent({ sessionId: session.id, seq: events.length, ...outcome.step }, trx);
+    return outcome.answer;
+  });
+}
+
+export function attemptBenchState(ctx: { user: CurrentUser; scope: Scope; id: string }) {
+  return onAttemptBench(ctx, (bench) => ({ step: null, answer: { id: ctx.id, ...bench.snapshot() } }));
+}
+
+export function attemptBenchAct(ctx: { user: CurrentUser; scope: Scope; id: string }, input: { action: BenchAction; seconds?: number }) {
+  return onAttemptBench(ctx, (bench) => {
+    const answer = bench.act(input.action, input.seconds);
+    return { step: { kind: 'action', payload: { ...input }, result: { ...answer }, simTime: answer.time }, answer };
+  });
+}
+
+export function attemptBenchMeasure(ctx: { user: CurrentUser; scope: Scope; id: string }, input: MeasureRequest) {
+  return onAttemptBench(ctx, (bench) => {
+    const answer = bench.measure(input);
+    return { step: { kind: 'measure', payload: { ...input }, result: { ...answer }, simTime: answer.time }, answer };
+  });
+}
+
+export function attemptBenchObserve(ctx: { user: CurrentUser; scope: Scope; id: string }, input: { what: string }) {
+  return onAttemptBench(ctx, (bench) => {
+    const answer = bench.observe(input.what as ObservationKind);
+    return { step: { kind: 'observe', payload: { what: input.what }, result: { ...answer }, simTime: answer.time }, answer };
+  });
 }

@@ -269,3 +269,36 @@ export const benchMeasureReplySchema = z.object({ value: z.number().nullable(), 
 export type BenchMeasureReply = z.output<typeof benchMeasureReplySchema>;
 export const benchObserveReplySchema = z.object({ result: z.string(), time: z.number() });
 export type BenchObserveReply = z.output<typeof benchObserveReplySchema>;
+
+// ── The bench of one attempt (the apprentice's own, while it runs) ─────────────────────────────
+
+const benchPoint = z.string({ error: 'Name the test point.' }).max(40, { error: 'A test point id is at most 40 characters.' });
+export const attemptActionSchema = z.strictObject(
+  {
+    action: z.enum(BENCH_ACTIONS, { error: `The action is one of ${BENCH_ACTIONS.join(', ')}.` }),
+    seconds: z
+      .number({ error: 'Seconds are a number.' })
+      .finite({ error: 'Seconds are a number.' })
+      .min(0, { error: 'Wait at least 0 seconds.' })
+      .max(7200, { error: 'Wait at most 7200 seconds at once.' })
+      .optional(),
+  },
+  { error: objectError('the action') },
+);
+export const attemptMeasureSchema = z.union(
+  [
+    z.strictObject({ mode: z.enum(['vac', 'vdc', 'ohm']), a: benchPoint, b: benchPoint }),
+    z.strictObject({ mode: z.literal('ohm'), lead: benchPoint }),
+    z.strictObject({ mode: z.literal('udc'), series: benchPoint }),
+  ],
+  { error: 'A measurement is { mode: vac | vdc | ohm, a, b }, { mode: ohm, lead } or { mode: udc, series }.' },
+);
+export const attemptObserveSchema = z.strictObject(
+  {
+    what: z
+      .string({ error: 'Say what to look at.' })
+      .min(1, { error: 'Say what to look at.' })
+      .max(40, { error: 'At most 40 characters.' }),
+  },
+  { error: objectError('the observation') },
+);

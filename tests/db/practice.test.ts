@@ -18,7 +18,15 @@ import { AppError } from '@/lib/errors';
 import type { Scope } from '@/lib/policy';
 import type { Score } from '@/lib/practice/scoring';
 import type { CurrentUser } from '@/lib/server/guard';
-import { attemptDetail, finishMyAttempt, startAttempt, toPracticeEvent } from '@/lib/server/practice';
+import {
+  attemptBenchAct,
+  attemptBenchMeasure,
+  attemptBenchState,
+  attemptDetail,
+  finishMyAttempt,
+  startAttempt,
+  toPracticeEvent,
+} from '@/lib/server/practice';
 
 // Two companies of this file's own; deleting them at the end removes everything made here (CASCADE).
 const tag = randomUUID().slice(0, 8);
@@ -204,6 +212,36 @@ describe('attempts', () => {
       'bad_request',
     );
     expect((await getAttempt({ scope: own, id: started.id })).finishedAt).toBeNull();
+  });
+});
+
+describe('the bench of a running attempt', () => {
+  it('replays the stored events, stores each new reading, refuses in words without storing, and closes once scored', async () => {
+    const s = await newScenario();
+    await assignScenario({ companyId: companyA, scenarioId: s.id, apprenticeIds: [noor], by: trainer });
+    const [assignment] = await listAssignments({ scope: scope(companyA, noor, 'own'), scenarioId: s.id });
+    const me = asUser(noor, companyA, 'apprentice');
+    const own = scope(companyA, noor, 'own');
+    const { id, benchSessionId } = await startAttempt({ user: me, scope: own, assignmentId: assignment.id });
+    const ctx = { user: me, scope: own, id };
+    expect((await attemptBenchState(ctx)).powered).toBe(false);
+    await attemptBenchAct(ctx, { action: 'power-on' });
+    // Each request replays the session: the power stays on between them.
+    expect((await attemptBenchState(ctx)).powered).toBe(true);
+    // A blown fuse: 24 V at the secondary, about 0 V past the fuse (issue 9's physics rules; common practice, no source).
+    expect((await attemptBenchMeasure(ctx, { mode: 'vac', a: 'xfmr-hot', b: 'xfmr-common' })).value).toBeGreaterThan(20);
+    expect((await attemptBenchMeasure(ctx, { mode: 'vac', a: 'fuse-out', b: 'xfmr-common' })).value).toBeLessThan(2);
+    const refused = await appError(attemptBenchMeasure(ctx, { mode: 'vac', a: 'xfmr-hot', b: 'nowhere' }));
+    expect(refused.code).toBe('bad_request');
+    expect(await db('bench_events').where({ session_id: benchSessionId }).count({ n: '*' })).toEqual([{ n: '3' }]);
+    // Someone else's attempt is not found; nobody else works this bench.
+    expect(
+      (await appError(attemptBenchState({ user: asUser(ravi, companyA, 'apprentice'), scope: scope(companyA, ravi, 'own'), id }))).code,
+    ).toBe('not_found');
+    const done = await finishMyAttempt({ ...ctx, findingStepId: 'f-blown-fuse' });
+    expect(done.score!.lines.find((l) => l.key === 'finding')!.points).toBe(50);
+    expect(done.score!.measurements).toBe(2);
+    expect((await appError(attemptBenchAct(ctx, { action: 'wait', seconds: 5 }))).code).toBe('conflict');
   });
 });
 

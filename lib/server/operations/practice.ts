@@ -5,6 +5,10 @@ import { noInput, recordId } from '@/lib/server/operations/shared';
 import {
   addScenario,
   apprenticeProgress,
+  attemptBenchAct,
+  attemptBenchMeasure,
+  attemptBenchObserve,
+  attemptBenchState,
   assignToApprentices,
   attemptDetail,
   finishMyAttempt,
@@ -15,6 +19,13 @@ import {
 } from '@/lib/server/practice';
 import {
   assignmentSchema,
+  attemptActionSchema,
+  attemptMeasureSchema,
+  attemptObserveSchema,
+  benchActionReplySchema,
+  benchMeasureReplySchema,
+  benchObserveReplySchema,
+  benchStateSchema,
   assignScenarioSchema,
   attemptSchema,
   createScenarioSchema,
@@ -98,4 +109,39 @@ export const apprenticeProgressOp = defineOperation({
   input: z.object({ id: recordId }),
   output: progressSchema,
   handler: async ({ scope, input }) => apprenticeProgress({ scope, apprenticeId: input.id }),
+});
+
+// GET /api/practice/attempts/{id}/bench
+export const attemptBenchStateOp = defineOperation({
+  name: 'practice.bench.get',
+  input: z.object({ id: recordId }),
+  output: benchStateSchema,
+  handler: async ({ user, scope, input }) => attemptBenchState({ user, scope, id: input.id }),
+});
+
+// POST /api/practice/attempts/{id}/bench/actions
+export const attemptBenchActOp = defineOperation({
+  name: 'practice.bench.act',
+  fieldsUnder: 'body',
+  input: z.object({ id: recordId, body: attemptActionSchema }),
+  output: benchActionReplySchema,
+  handler: async ({ user, scope, input }) => attemptBenchAct({ user, scope, id: input.id }, input.body),
+});
+
+// POST /api/practice/attempts/{id}/bench/measure
+export const attemptBenchMeasureOp = defineOperation({
+  name: 'practice.bench.measure',
+  fieldsUnder: 'body',
+  input: z.object({ id: recordId, body: attemptMeasureSchema }),
+  output: benchMeasureReplySchema,
+  handler: async ({ user, scope, input }) => attemptBenchMeasure({ user, scope, id: input.id }, input.body),
+});
+
+// POST /api/practice/attempts/{id}/bench/observe
+export const attemptBenchObserveOp = defineOperation({
+  name: 'practice.bench.observe',
+  fieldsUnder: 'body',
+  input: z.object({ id: recordId, body: attemptObserveSchema }),
+  output: benchObserveReplySchema,
+  handler: async ({ user, scope, input }) => attemptBenchObserve({ user, scope, id: input.id }, input.body),
 });

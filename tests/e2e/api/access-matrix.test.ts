@@ -188,6 +188,13 @@ const ROUTES: Record<OperationName, RouteCase> = {
     rows: true,
   },
   'mail.mailbox': { method: 'GET', path: () => '/api/dev/mailbox', rows: false },
+  // Photos (h10a): each matrix call has photos made below (rows only: the objects are not needed to
+  // sign a link or to delete). The upload is sent as JSON: past the call's reach it is refused 415.
+  'attachments.upload': { method: 'POST', path: (r) => `/api/calls/${r.callId}/attachments`, body: () => ({ file: 'x' }), rows: true },
+  'attachments.list': { method: 'GET', path: (r) => `/api/calls/${r.callId}/attachments`, rows: true },
+  'attachments.get': { method: 'GET', path: (r) => `/api/attachments/${photosOf(r)[0]}?size=thumb`, rows: true },
+  // A photo of its own for every request: a delete the policy lets through removes it.
+  'attachments.delete': { method: 'DELETE', path: (r) => `/api/attachments/${photosOf(r).pop()}`, rows: true },
   'notifications.get': { method: 'GET', path: () => '/api/me/notifications', rows: false },
   'notifications.update': { method: 'PUT', path: () => '/api/me/notifications', body: () => ({}), rows: false },
   // Practice (h9ui): the rows are a scenario, an assignment and an unfinished attempt made below in the
@@ -218,7 +225,46 @@ const ROUTES: Record<OperationName, RouteCase> = {
     rows: true,
   },
   'practice.progress': { method: 'GET', path: (r) => `/api/practice/apprentices/${practiceOf(r).apprenticeId}`, rows: true },
+  'practice.bench.get': { method: 'GET', path: (r) => `/api/practice/attempts/${practiceOf(r).attemptId}/bench`, rows: true },
+  'practice.bench.act': {
+    method: 'POST',
+    path: (r) => `/api/practice/attempts/${practiceOf(r).attemptId}/bench/actions`,
+    body: () => ({ action: 'wait', seconds: 1 }),
+    rows: true,
+  },
+  'practice.bench.measure': {
+    method: 'POST',
+    path: (r) => `/api/practice/attempts/${practiceOf(r).attemptId}/bench/measure`,
+    body: () => ({ mode: 'vac', a: 'xfmr-hot', b: 'xfmr-common' }),
+    rows: true,
+  },
+  'practice.bench.observe': {
+    method: 'POST',
+    path: (r) => `/api/practice/attempts/${practiceOf(r).attemptId}/bench/observe`,
+    body: () => ({ what: 'spark' }),
+    rows: true,
+  },
+  'bench.sessions.create': {
+    method: 'POST',
+    path: () => '/api/bench/sessions',
+    body: () => ({ faultId: 'no-such-fault', unit: { controlSupply: '24v', ignition: 'two-rod', fuel: 'natural-gas' } }),
+    rows: false,
+  },
+  'bench.sessions.get': { method: 'GET', path: (r) => `/api/bench/sessions/${benchOf(r)}`, rows: true },
+  'bench.sessions.act': { method: 'POST', path: (r) => `/api/bench/sessions/${benchOf(r)}/actions`, body: () => ({ action: 'wait', seconds: 1 }), rows: true },
+  'bench.sessions.measure': {
+    method: 'POST',
+    path: (r) => `/api/bench/sessions/${benchOf(r)}/measure`,
+    body: () => ({ mode: 'vac', a: 'xfmr-hot', b: 'xfmr-common' }),
+    rows: true,
+  },
+  'bench.sessions.observe': { method: 'POST', path: (r) => `/api/bench/sessions/${benchOf(r)}/observe`, body: () => ({ what: 'spark' }), rows: true },
+  'bench.faults': { method: 'GET', path: () => '/api/bench/faults', rows: false },
 };
+
+/** The matrix photos of each call, by call id ([0] is read, the others are deleted one by one). */
+const matrixPhotos = new Map<string, string[]>();
+const photosOf = (r: Rows): string[] => matrixPhotos.get(r.callId)!;
 
 interface PracticeRows {
   scenarioId: string;
@@ -229,11 +275,14 @@ interface PracticeRows {
 const practiceRows = new Map<string, PracticeRows>();
 const practiceOf = (r: Rows): PracticeRows => practiceRows.get(r.userId)!;
 /** An apprentice's own practice rows: the others of the company are out of an `own` reach. */
-const OWN_PRACTICE = /^practice\.(attempts\.(start|get|finish))$/;
+const OWN_PRACTICE = /^(practice\.(attempts\.(start|get|finish)|bench\.(get|act|measure|observe))|bench\.sessions\.(get|act|measure|observe))$/;
+/** A bench session of each row owner's own (bench.sessions.*: a session belongs to its user whatever the role). */
+const benchSessions = new Map<string, string>();
+const benchOf = (r: Rows): string => benchSessions.get(r.userId)!;
 
 // The calls and diagnoses a reach covers: the whole company, one's own, or (supervised) one's own and apprentices'.
 const CALL_ROWS =
-  /^(calls\.(get|recordRepair|close|reopen|assign)|diagnoses\.(start|get|answer|undo|signOff|escalate)|reports\.(pdf|emailPreview|email)|mail\.resend)$/;
+  /^(calls\.(get|recordRepair|close|reopen|assign)|diagnoses\.(start|get|answer|undo|signOff|escalate)|reports\.(pdf|emailPreview|email)|mail\.resend|attachments\.(upload|list|get|delete))$/;
 
 interface Identity {
   label: string;
@@ -322,6 +371,33 @@ beforeAll(async () => {
   }
 });
 
+// Photos on every matrix call (h10a): one to read, and enough to delete one per request.
+beforeAll(async () => {
+  const calls = new Set([...rowsFor.values()].flatMap((v) => [v.own.callId, v.company.callId, v.other.callId]));
+  for (const id of calls) {
+    const call = await db('service_calls').where({ id }).first('company_id');
+    const ids: string[] = [];
+    for (let i = 0; i < 1 + IDENTITIES.length * 2; i += 1) {
+      const photo = randomUUID();
+      const key = `companies/${call.company_id}/calls/${id}/${photo}`;
+      await db('attachments').insert({
+        id: photo,
+        company_id: call.company_id,
+        call_id: id,
+        key: `${key}/display.webp`,
+        thumb_key: `${key}/thumb.webp`,
+        content_type: 'image/webp',
+        size: 1,
+        original_size: 1,
+        width: 1,
+        height: 1,
+      });
+      ids.push(photo);
+    }
+    matrixPhotos.set(id, ids);
+  }
+});
+
 // A practice scenario, assignment and open attempt in the company of every matrix row's owner.
 beforeAll(async () => {
   const owners = new Set([...rowsFor.values()].flatMap((v) => [v.own.userId, v.company.userId, v.other.userId]));
@@ -372,6 +448,23 @@ beforeAll(async () => {
       })
       .returning('id');
     practiceRows.set(ownerId, { scenarioId: scenario.id, assignmentId: assignment.id, attemptId: attempt.id, apprenticeId: apprenticeId! });
+  }
+});
+
+beforeAll(async () => {
+  const owners = new Set([...rowsFor.values()].flatMap((v) => [v.own.userId, v.company.userId, v.other.userId]));
+  for (const userId of owners) {
+    const user = await db('users').where({ id: userId }).first('company_id');
+    const [session] = await db('bench_sessions')
+      .insert({
+        company_id: user.company_id,
+        user_id: userId,
+        unit: JSON.stringify({ controlSupply: '24v', ignition: 'two-rod', fuel: 'natural-gas', draft: 'induced' }),
+        fault_id: null,
+        seed: 1,
+      })
+      .returning('id');
+    benchSessions.set(userId, session.id);
   }
 });
 

@@ -367,6 +367,13 @@ const TARGETS: Record<string, Target> = {
     client: () => treeLead,
     valid: () => ({ document: treeRefs.document }),
   },
+  // Before the finish below: a scored attempt's bench is closed.
+  'POST /api/practice/attempts/{id}/bench/measure': {
+    method: 'POST',
+    path: () => `/api/practice/attempts/${ids.attempt}/bench/measure`,
+    client: () => apprentice,
+    valid: () => ({ mode: 'vac', a: 'xfmr-hot', b: 'xfmr-common' }),
+  },
   // A finding that gets through scores the attempt once; later ones are 409s.
   'POST /api/practice/attempts/{id}/finish': {
     method: 'POST',

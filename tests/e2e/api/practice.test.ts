@@ -81,7 +81,7 @@ describe('an attempt on the bench', () => {
     const { scenarioId, assignment } = await scenarioFor(['blown-fuse']);
     const started = await apprentice.post(`/api/practice/assignments/${assignment.id}/attempts`, {});
     expect(started.status, started.text).toBe(201);
-    const { id, benchSessionId } = started.json;
+    const { id } = started.json;
 
     const running = await apprentice.get(`/api/practice/attempts/${id}`);
     expect(running.json.fault).toBeNull();
@@ -89,10 +89,15 @@ describe('an attempt on the bench', () => {
     // The trainer may see what is injected; the session is not theirs to work.
     expect((await trainer.get(`/api/practice/attempts/${id}`)).json.fault.id).toBe('blown-fuse');
 
-    const bench = `/api/bench/sessions/${benchSessionId}`;
+    const bench = `/api/practice/attempts/${id}/bench`;
     expect((await apprentice.post(`${bench}/actions`, { action: 'power-on' })).status).toBe(200);
     const secondary = await apprentice.post(`${bench}/measure`, { mode: 'vac', a: 'xfmr-hot', b: 'xfmr-common' });
     const pastFuse = await apprentice.post(`${bench}/measure`, { mode: 'vac', a: 'fuse-out', b: 'xfmr-common' });
+    // A point the circuit does not have: refused in words, nothing stored (the path below has three events).
+    const unknown = await apprentice.post(`${bench}/measure`, { mode: 'vac', a: 'xfmr-hot', b: 'no-such-point' });
+    expect(unknown.status).toBe(400);
+    expect(unknown.json.error.message).toMatch(/no-such-point/);
+    expect((await trainer.post(`${bench}/measure`, { mode: 'vac', a: 'xfmr-hot', b: 'xfmr-common' })).status).toBe(403);
     // A blown fuse leaves 24 V at the secondary and none past the fuse (issue 9's physics; common practice, no source).
     expect(secondary.json.value).toBeGreaterThan(20);
     expect(pastFuse.json.value).toBeLessThan(2);
@@ -109,6 +114,8 @@ describe('an attempt on the bench', () => {
     expect(done.json.fault.id).toBe('blown-fuse');
 
     expect((await apprentice.post(`/api/practice/attempts/${id}/finish`, { findingStepId: 'f-blown-fuse' })).status).toBe(409);
+    // Scored: its bench is closed.
+    expect((await apprentice.post(`${bench}/actions`, { action: 'wait', seconds: 5 })).status).toBe(409);
     const detail = await trainer.get(`/api/practice/scenarios/${scenarioId}`);
     const row = detail.json.attempts.find((a: { id: string }) => a.id === id);
     expect(row).toMatchObject({ right: true, total: done.json.score.total, faultId: 'blown-fuse' });
