@@ -1,6 +1,7 @@
 import 'server-only';
 import type { OperationName } from '@/lib/policy';
 import type { Operation } from '@/lib/server/operation';
+import * as attachments from '@/lib/server/operations/attachments';
 import * as auth from '@/lib/server/operations/auth';
 import * as company from '@/lib/server/operations/company';
 import * as diagnoses from '@/lib/server/operations/diagnoses';
@@ -18,6 +19,7 @@ export const OPERATIONS: ReadonlyMap<OperationName, Operation> = new Map(
       ...Object.values(field),
       ...Object.values(diagnoses),
       ...Object.values(mail),
+      ...Object.values(attachments),
       ...Object.values(trees),
       ...Object.values(practice),
     ] as Operation[]
