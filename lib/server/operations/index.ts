@@ -9,6 +9,7 @@ import * as field from '@/lib/server/operations/field';
 import * as mail from '@/lib/server/operations/mail';
 import * as trees from '@/lib/server/operations/trees';
 import * as practice from '@/lib/server/operations/practice';
+import * as bench from '@/lib/server/operations/bench';
 
 /** Every declared operation, by its policy name (tests check it against lib/policy.ts both ways). */
 export const OPERATIONS: ReadonlyMap<OperationName, Operation> = new Map(
@@ -22,6 +23,7 @@ export const OPERATIONS: ReadonlyMap<OperationName, Operation> = new Map(
       ...Object.values(attachments),
       ...Object.values(trees),
       ...Object.values(practice),
+      ...Object.values(bench),
     ] as Operation[]
   ).map((op) => [op.name, op]),
 );

@@ -251,14 +251,24 @@ const ROUTES: Record<OperationName, RouteCase> = {
     rows: false,
   },
   'bench.sessions.get': { method: 'GET', path: (r) => `/api/bench/sessions/${benchOf(r)}`, rows: true },
-  'bench.sessions.act': { method: 'POST', path: (r) => `/api/bench/sessions/${benchOf(r)}/actions`, body: () => ({ action: 'wait', seconds: 1 }), rows: true },
+  'bench.sessions.act': {
+    method: 'POST',
+    path: (r) => `/api/bench/sessions/${benchOf(r)}/actions`,
+    body: () => ({ action: 'wait', seconds: 1 }),
+    rows: true,
+  },
   'bench.sessions.measure': {
     method: 'POST',
     path: (r) => `/api/bench/sessions/${benchOf(r)}/measure`,
     body: () => ({ mode: 'vac', a: 'xfmr-hot', b: 'xfmr-common' }),
     rows: true,
   },
-  'bench.sessions.observe': { method: 'POST', path: (r) => `/api/bench/sessions/${benchOf(r)}/observe`, body: () => ({ what: 'spark' }), rows: true },
+  'bench.sessions.observe': {
+    method: 'POST',
+    path: (r) => `/api/bench/sessions/${benchOf(r)}/observe`,
+    body: () => ({ what: 'spark' }),
+    rows: true,
+  },
   'bench.faults': { method: 'GET', path: () => '/api/bench/faults', rows: false },
 };
 
@@ -275,7 +285,8 @@ interface PracticeRows {
 const practiceRows = new Map<string, PracticeRows>();
 const practiceOf = (r: Rows): PracticeRows => practiceRows.get(r.userId)!;
 /** An apprentice's own practice rows: the others of the company are out of an `own` reach. */
-const OWN_PRACTICE = /^(practice\.(attempts\.(start|get|finish)|bench\.(get|act|measure|observe))|bench\.sessions\.(get|act|measure|observe))$/;
+const OWN_PRACTICE =
+  /^(practice\.(attempts\.(start|get|finish)|bench\.(get|act|measure|observe))|bench\.sessions\.(get|act|measure|observe))$/;
 /** A bench session of each row owner's own (bench.sessions.*: a session belongs to its user whatever the role). */
 const benchSessions = new Map<string, string>();
 const benchOf = (r: Rows): string => benchSessions.get(r.userId)!;
