@@ -12,6 +12,7 @@ import {
   recordRepair,
   reopenCall,
 } from '@/db/calls';
+import { listAttachmentsForCall } from '@/db/attachments';
 import { getCompany } from '@/db/companies';
 import { listAnswersForDiagnoses, listDiagnosesForCall } from '@/db/diagnoses';
 import { db } from '@/db/knex';
@@ -355,7 +356,11 @@ export async function getCallReport({ scope, id }: { scope: Scope; id: string })
     cautions: observed,
     reasons,
     events: events.map(({ diagnosisId: _d, ...e }) => e),
-    photos: [],
+    photos: (await listAttachmentsForCall({ companyId: scope.companyId, callId: id })).map((a) => ({
+      id: a.id,
+      answerId: a.answerId,
+      caption: null,
+    })),
   };
 }
 
