@@ -21,10 +21,9 @@ interface Tile {
   href: string;
   title: string;
   text: string;
-  later?: boolean;
 }
 
-// What each role does first. Tiles marked `later` describe features that are not built yet.
+// What each role does first.
 const TILES: Record<Role, Tile[]> = {
   apprentice: [
     {
@@ -51,8 +50,7 @@ const TILES: Record<Role, Tile[]> = {
     {
       href: '/trees',
       title: 'Fault trees',
-      text: 'Edit, review and publish the company’s fault trees. Authoring comes in a later release; the published default tree is in use.',
-      later: true,
+      text: 'Edit drafts, review another lead’s changes, publish new versions, and see where diagnoses go wrong.',
     },
   ],
   trainer: [
@@ -91,12 +89,7 @@ export default async function HomePage({ searchParams }: { searchParams: Promise
         {TILES[user.role].map((tile) => (
           <li key={tile.href + tile.title}>
             <Link href={tile.href} className="card flex h-full min-h-[8rem] flex-col gap-2 hover:border-copper">
-              <span className="flex items-center justify-between gap-2 text-lg font-bold">
-                {tile.title}
-                {tile.later && (
-                  <span className="rounded-full border border-line px-2 py-0.5 text-xs font-semibold text-muted">coming later</span>
-                )}
-              </span>
+              <span className="text-lg font-bold">{tile.title}</span>
               <span className="text-muted">{tile.text}</span>
             </Link>
           </li>
