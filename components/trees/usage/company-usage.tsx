@@ -27,10 +27,11 @@ export function CompanyUsage({ usage }: { usage: CompanyTreeUsageOut }) {
         <Figure label="Median, first step to finding" value={duration(usage.timeToFinding.medianSeconds)} />
       </dl>
       <p className="text-sm text-muted">
-        First-time fix: closed calls with no new call for the same unit within {fix.windowDays} days ({fix.returned} came back).
+        Since the company started: first-time fix counts closed calls with no new call for the same unit within {fix.windowDays} days (
+        {fix.returned} came back).
         {fix.windowOpen > 0 &&
           ` ${fix.windowOpen} of the closed calls were closed less than ${fix.windowDays} days ago and may still come back.`}{' '}
-        The median counts {usage.timeToFinding.diagnoses} diagnoses that reached a finding.
+        The median counts all {usage.timeToFinding.diagnoses} diagnoses that reached a finding.
       </p>
       <section className="card space-y-3" aria-labelledby="findings-by-month">
         <h2 id="findings-by-month" className="text-lg font-bold">
