@@ -113,7 +113,9 @@ describe('practice at tablet size', () => {
     expect(await score.textContent()).toContain('The finding50 / 50');
     await shot(a, '07-apprentice-score');
 
-    // ── The trainer sees the result ──
+    // ── The trainer sees the result (the pages share one browser profile: sign the trainer in again) ──
+    await browser.context.clearCookies();
+    await new SignInPage(t).signIn(DEMO.trainer, DEMO_PASSWORD);
     await t.goto(scenarioUrl);
     const row = t.getByTestId('results-table').getByRole('row').filter({ hasText: 'Noor Baptiste' });
     await row.waitFor();
