@@ -120,6 +120,16 @@ beforeAll(async () => {
   ids.attempt = (await apprentice.post(`/api/practice/assignments/${assignment.id}/attempts`, {})).json.id;
 });
 
+// The bench (h9core): a session of the demo apprentice's own.
+beforeAll(async () => {
+  const session = await apprentice.post('/api/bench/sessions', {
+    faultId: null,
+    unit: { controlSupply: '24v', ignition: 'two-rod', fuel: 'natural-gas', draft: 'induced' },
+    seed: 5,
+  });
+  ids.benchSession = session.json.id;
+});
+
 // Tree authoring (h8s): a tree of its own with a draft holding the built-in graph, and an export to import.
 let treeLead: ApiClient;
 const treeRefs: { graph?: unknown; document?: Record<string, unknown>; revision?: number } = {};
@@ -366,6 +376,30 @@ const TARGETS: Record<string, Target> = {
     path: () => '/api/trees/import',
     client: () => treeLead,
     valid: () => ({ document: treeRefs.document }),
+  },
+  'POST /api/bench/sessions': {
+    method: 'POST',
+    path: () => '/api/bench/sessions',
+    client: () => apprentice,
+    valid: () => ({ faultId: null, unit: { controlSupply: '24v', ignition: 'two-rod', fuel: 'natural-gas', draft: 'induced' } }),
+  },
+  'POST /api/bench/sessions/{id}/actions': {
+    method: 'POST',
+    path: () => `/api/bench/sessions/${ids.benchSession}/actions`,
+    client: () => apprentice,
+    valid: () => ({ action: 'wait', seconds: 1 }),
+  },
+  'POST /api/bench/sessions/{id}/measure': {
+    method: 'POST',
+    path: () => `/api/bench/sessions/${ids.benchSession}/measure`,
+    client: () => apprentice,
+    valid: () => ({ mode: 'vac', a: 'xfmr-hot', b: 'xfmr-common' }),
+  },
+  'POST /api/bench/sessions/{id}/observe': {
+    method: 'POST',
+    path: () => `/api/bench/sessions/${ids.benchSession}/observe`,
+    client: () => apprentice,
+    valid: () => ({ what: 'spark' }),
   },
   // Before the finish below: a scored attempt's bench is closed.
   'POST /api/practice/attempts/{id}/bench/measure': {
