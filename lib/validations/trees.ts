@@ -1,6 +1,9 @@
 import { z } from 'zod';
 import { multiLine, objectError, singleLine } from '@/lib/validations/text';
 
+/** A revision is a PostgreSQL integer: anything above never names one (and would not fit the column). */
+const MAX_REVISION = 2_147_483_647;
+
 // Inputs of tree authoring, shared by the editor's forms and the server. A draft is saved with its
 // problems (the validator lists them), so a draft's graph is only checked for its outline here: an
 // object with a start and a list of step objects. What a step must hold is the validator's business.
@@ -48,7 +51,11 @@ export const startDraftSchema = z
 
 export const saveDraftSchema = z.object(
   {
-    baseRevision: z.number({ error: 'baseRevision is the revision your edit started from.' }).int().min(1),
+    baseRevision: z
+      .number({ error: 'baseRevision is the revision your edit started from.' })
+      .int()
+      .min(1)
+      .max(MAX_REVISION, { error: 'baseRevision is not a revision of this draft.' }),
     graph: draftGraphSchema,
   },
   { error: objectError('the save') },
@@ -74,7 +81,10 @@ export const returnVersionSchema = z.object(
 );
 
 /** Submitting names the revision the lead saw, so a save landing in between is not submitted unseen. */
-export const submitVersionSchema = z.object({ revision: z.number().int().min(1).optional() }, { error: objectError('the request') });
+export const submitVersionSchema = z.object(
+  { revision: z.number().int().min(1).max(MAX_REVISION).optional() },
+  { error: objectError('the request') },
+);
 
 export const diffQuerySchema = z.object({
   against: z.union([z.literal('builtin'), z.string().max(100)], { error: 'against is the id of the other version, or "builtin".' }),

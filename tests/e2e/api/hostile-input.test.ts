@@ -20,7 +20,8 @@ const TABLES = [
   'diagnoses',
   'answers',
   'call_events',
-  'outbox',
+  // Not the outbox: its worker sends what valid requests queued while the next requests run, which
+  // would read as a refusal changing it (tests/e2e/api/report.test.ts counts what a refusal queues).
   'notification_settings',
   'practice_scenarios',
   'practice_assignments',
