@@ -70,6 +70,12 @@ export function ensureChromium() {
   return exe;
 }
 
+/** poppler-utils (pdftotext, pdfinfo, pdffonts) for the tests that read the report's PDF back. */
+export function ensurePoppler() {
+  if (existsSync('/usr/bin/pdftotext')) return;
+  aptInstall(['poppler-utils'], 'poppler-utils for the PDF tests (Debian package poppler-utils)');
+}
+
 /** Run a PostgreSQL binary as the unprivileged `postgres` user when we are root (initdb refuses root). */
 function pgCommand(bin, tool, args) {
   const exe = path.join(bin, tool);

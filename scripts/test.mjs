@@ -9,6 +9,7 @@ import path from 'node:path';
 import {
   ensureChromium,
   ensureDatabase,
+  ensurePoppler,
   ensureDependencies,
   ensurePostgres,
   freePort,
@@ -54,6 +55,7 @@ async function main() {
   ensureDependencies();
   const bin = ensurePostgres();
   const chromium = unitOnly ? undefined : ensureChromium();
+  ensurePoppler();
   const tmp = mkdtempSync(path.join(os.tmpdir(), 'proving-ground-test-'));
   const pgPort = await freePort();
   const cluster = await startCluster({ bin, dir: tmp, port: pgPort, throwaway: true });
