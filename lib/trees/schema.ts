@@ -1,6 +1,7 @@
 // The shape of a fault-tree version's graph. Shared by the validator, the machine compiler, the
 // server (every save and every seed parses through it) and the authoring forms.
 import { z } from 'zod';
+import { GAUGES, LEADS, MOMENTS, OBSERVATIONS, POINTS, SERIES_POINTS, type ObservationKind } from '@/lib/bench/points';
 
 /** Quantities a measure step can ask for. Each has one canonical unit (see CANONICAL_UNITS). */
 export const QUANTITIES = ['vac', 'vdc', 'udc', 'ohm', 'length', 'pressure'] as const;
@@ -105,6 +106,41 @@ const stepBase = {
   timeline: z.boolean().optional(),
 };
 
+/**
+ * Where a measure step's reading is taken, in the bench's circuit vocabulary (lib/bench/points.ts):
+ * the meter's two leads on two points, the meter in series in a lead (microamps), a lead's own
+ * resistance end to end (ohms, disconnected), or a gauge (manometer, gap gauge). The human
+ * description stays in `points`; this is what the bench, the isolation check and a practice
+ * diagnosis answer from.
+ */
+export const probeSchema = z.union([
+  z.object({ a: z.enum(POINTS as [string, ...string[]]), b: z.enum(POINTS as [string, ...string[]]) }).strict(),
+  z.object({ series: z.enum(SERIES_POINTS as [string, ...string[]]) }).strict(),
+  z.object({ lead: z.enum(LEADS) }).strict(),
+  z.object({ gauge: z.enum(Object.keys(GAUGES) as [string, ...string[]]) }).strict(),
+]);
+export type Probe = z.infer<typeof probeSchema>;
+
+/**
+ * When in the control's sequence a reading or a look is taken: `now` (as the unit stands),
+ * `call` (with a call for heat, before the trial), `proving` (during the trial for ignition),
+ * `after-proving` (once the flame is proven and the unit runs).
+ */
+export const momentSchema = z.enum(MOMENTS);
+
+/**
+ * What an inspect step observes, machine-readably: the observation (lib/bench/points.ts), when, and
+ * which of the step's choices each result means. The bench answers it in a practice diagnosis and in
+ * the isolation check; a result left out of `choices` has no choice on this step.
+ */
+export const observationSchema = z.object({
+  what: z.enum(Object.keys(OBSERVATIONS) as [ObservationKind, ...ObservationKind[]]),
+  at: momentSchema.optional(),
+  /** Result → the `value` of one of the step's choices. */
+  choices: z.record(z.string(), stepIdSchema),
+});
+export type Observation = z.infer<typeof observationSchema>;
+
 /** Computation aids the wizard offers beside a measure step. */
 export const AIDS = ['voltage-drop', 'transformer-load'] as const;
 
@@ -124,6 +160,9 @@ export const measureStepSchema = z.object({
   /** Where the default bands come from, shown beside them ("default — common practice, a lead can change"). */
   bandsNote: z.string().trim().optional(),
   aids: z.array(z.enum(AIDS)).default([]),
+  probe: probeSchema.optional(),
+  /** When in the sequence the reading is taken (see `momentSchema`); left out: `now`. */
+  at: momentSchema.optional(),
 });
 
 export const choiceSchema = z.object({
@@ -138,6 +177,7 @@ export const inspectStepSchema = z.object({
   choices: z.array(choiceSchema).min(2, 'An inspect step needs at least two choices'),
   /** A note the technician writes with the choice (what a status light shows, against the control's own legend). */
   note: z.object({ label: z.string().trim().min(1), required: z.boolean().default(false) }).optional(),
+  observe: observationSchema.optional(),
 });
 
 /** Facts of the unit record a tree can branch on, with the values each can take. */

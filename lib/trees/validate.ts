@@ -4,7 +4,8 @@
 import type { z } from 'zod';
 import { checkBandCoverage } from '@/lib/bands';
 import { findCycles, outgoingEdges, reachableFrom, stepMap } from '@/lib/trees/graph';
-import { treeGraphSchema, UNIT_FACTS, type TreeGraph } from '@/lib/trees/schema';
+import { GAUGES, OBSERVATIONS } from '@/lib/bench/points';
+import { treeGraphSchema, UNIT_FACTS, type MeasureStep, type TreeGraph } from '@/lib/trees/schema';
 
 export interface GraphProblem {
   stepId?: string;
@@ -83,6 +84,8 @@ export function checkGraph(graph: TreeGraph): GraphProblem[] {
           });
         }
       }
+      const probeProblem = checkProbe(step);
+      if (probeProblem) problems.push({ stepId: step.id, message: probeProblem });
     }
 
     if (step.kind === 'fact') {
@@ -110,6 +113,23 @@ export function checkGraph(graph: TreeGraph): GraphProblem[] {
           problems.push({ stepId: step.id, message: `Step "${step.id}" has the choice "${choice.value}" more than once` });
         }
         values.add(choice.value);
+      }
+      if (step.observe) {
+        const results: readonly string[] = OBSERVATIONS[step.observe.what].results;
+        for (const [result, choice] of Object.entries(step.observe.choices)) {
+          if (!results.includes(result)) {
+            problems.push({
+              stepId: step.id,
+              message: `Step "${step.id}": "${result}" is not a result of observing ${step.observe.what} (${results.join(', ')})`,
+            });
+          }
+          if (!values.has(choice)) {
+            problems.push({
+              stepId: step.id,
+              message: `Step "${step.id}": the observation maps "${result}" to "${choice}", which is not one of its choices`,
+            });
+          }
+        }
       }
     }
 
@@ -163,6 +183,24 @@ export function checkGraph(graph: TreeGraph): GraphProblem[] {
   }
 
   return problems;
+}
+
+/** A probe must take the step's quantity: the right meter function, or the gauge of that quantity. */
+function checkProbe(step: MeasureStep): string | null {
+  const probe = step.probe;
+  if (!probe) return null;
+  const where = `Step "${step.id}"`;
+  if ('gauge' in probe) {
+    const gauge = GAUGES[probe.gauge as keyof typeof GAUGES];
+    return gauge.quantity === step.quantity
+      ? null
+      : `${where} measures ${step.quantity}, but its probe is the ${gauge.label.toLowerCase()}`;
+  }
+  if (step.quantity === 'length' || step.quantity === 'pressure') return `${where} measures ${step.quantity}: its probe must be a gauge`;
+  if ('series' in probe) return step.quantity === 'udc' ? null : `${where}: only microamps are read with the meter in series`;
+  if (step.quantity === 'udc') return `${where} reads microamps: its probe must put the meter in series in a lead`;
+  if ('lead' in probe) return step.quantity === 'ohm' ? null : `${where}: a lead end to end is read in ohms`;
+  return probe.a === probe.b ? `${where}: the meter's two leads are on the same point` : null;
 }
 
 function schemaProblem(input: unknown, issue: z.core.$ZodIssue): GraphProblem {

@@ -191,3 +191,46 @@ describe('validateGraph', () => {
     expect(problemsOf(input)).toContainEqual({ stepId: 'lock-out--volts', message: expect.stringMatching(/reserved/) });
   });
 });
+
+describe('probes and observations (what the bench answers a step from)', () => {
+  it('accepts a meter probe that fits the quantity and an observation mapped onto the choices', () => {
+    const g = mutate((steps) => {
+      step(steps, 'volts').probe = { a: 'xfmr-hot', b: 'xfmr-common' };
+      step(steps, 'volts').at = 'call';
+      step(steps, 'look').observe = { what: 'spark', at: 'proving', choices: { 'at-gap': 'good', none: 'bad' } };
+    });
+    expect(validateGraph(g).ok).toBe(true);
+  });
+
+  it('refuses a probe of the wrong kind for the quantity, and an unknown circuit point', () => {
+    const series = mutate((steps) => {
+      step(steps, 'volts').probe = { series: 'flame-rod-lead' };
+    });
+    expect(
+      problemsOf(series)
+        .map((p) => p.message)
+        .join('\n'),
+    ).toMatch(/only microamps are read with the meter in series/);
+    const gauge = mutate((steps) => {
+      step(steps, 'volts').probe = { gauge: 'spark-gap' };
+    });
+    expect(
+      problemsOf(gauge)
+        .map((p) => p.message)
+        .join('\n'),
+    ).toMatch(/measures vac, but its probe is the spark gap/);
+    const unknown = mutate((steps) => {
+      step(steps, 'volts').probe = { a: 'R-terminal', b: 'xfmr-common' };
+    });
+    expect(problemsOf(unknown)[0]).toMatchObject({ stepId: 'volts' });
+  });
+
+  it('refuses an observation result the observation cannot have, or mapped to a choice the step lacks', () => {
+    const g = mutate((steps) => {
+      step(steps, 'look').observe = { what: 'flame', choices: { 'at-gap': 'good', none: 'missing' } };
+    });
+    const messages = problemsOf(g).map((p) => p.message);
+    expect(messages).toContain('Step "look": "at-gap" is not a result of observing flame (all-burners, partial, none)');
+    expect(messages).toContain('Step "look": the observation maps "none" to "missing", which is not one of its choices');
+  });
+});
