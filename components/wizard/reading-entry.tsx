@@ -1,6 +1,6 @@
 'use client';
 
-import { useId } from 'react';
+import { useEffect, useId, useRef } from 'react';
 import type { MeasureStep } from '@/lib/trees/schema';
 import { formatOptionsFor, formatReading, OVER_RANGE_ENTRY, OVER_RANGE_TEXT, parseReading, type ReadingParse } from '@/lib/units';
 import { BandGauge } from '@/components/wizard/band-gauge';
@@ -42,6 +42,20 @@ export function ReadingEntry({ step, value, onChange, onSubmit, disabled }: Read
   const ohms = step.quantity === 'ohm';
 
   const setText = (text: string) => onChange({ ...value, text });
+
+  // When the gauge first appears under the keypad it can sit below the fold or behind the fixed
+  // action bar (a tablet in landscape): bring it into view once, not on every key.
+  const gaugeRef = useRef<HTMLDivElement>(null);
+  const showsGauge = parsed?.ok === true;
+  useEffect(() => {
+    const el = gaugeRef.current;
+    if (!showsGauge || !el) return;
+    const bar = document.querySelector('[data-testid="action-bar"]')?.getBoundingClientRect().height ?? 0;
+    if (el.getBoundingClientRect().bottom > window.innerHeight - bar) {
+      const reduce = window.matchMedia?.('(prefers-reduced-motion: reduce)').matches;
+      el.scrollIntoView?.({ block: 'end', behavior: reduce ? 'auto' : 'smooth' });
+    }
+  }, [showsGauge]);
 
   return (
     <div className="space-y-4">
@@ -106,12 +120,14 @@ export function ReadingEntry({ step, value, onChange, onSubmit, disabled }: Read
           onBackspace={() => setText(value.text.slice(0, -1))}
         />
       </div>
-      {parsed?.ok &&
-        (parsed.overRange ? (
-          <BandGauge step={step} overRange unit={parsed.unit} caption="This reading" />
-        ) : (
-          <BandGauge step={step} value={parsed.value} unit={parsed.unit} form={parsed.form} caption="This reading" />
-        ))}
+      <div ref={gaugeRef} className="scroll-mb-4">
+        {parsed?.ok &&
+          (parsed.overRange ? (
+            <BandGauge step={step} overRange unit={parsed.unit} caption="This reading" />
+          ) : (
+            <BandGauge step={step} value={parsed.value} unit={parsed.unit} form={parsed.form} caption="This reading" />
+          ))}
+      </div>
     </div>
   );
 }

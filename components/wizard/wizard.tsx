@@ -16,6 +16,7 @@ import {
   type UnitFacts,
 } from '@/lib/trees/schema';
 import type { Role } from '@/lib/roles';
+import { bandsNoteForScreen } from '@/lib/trees/wording';
 import { displayUnitFor, OVER_RANGE_ENTRY, type UnitSystem } from '@/lib/units';
 import { fetcher } from '@/lib/swr/fetcher';
 import type { ActionResult, AnswerResult, DiagnosisViewOut } from '@/lib/validations/api';
@@ -485,7 +486,7 @@ function MeasureBody({
         </p>
       )}
       {relativeTo && <p className="text-base text-muted">The bands follow the reading you took at “{relativeTo}” on this visit.</p>}
-      {step.bandsNote && <p className="text-base text-muted">{step.bandsNote}</p>}
+      {step.bandsNote && <p className="text-base text-muted">{bandsNoteForScreen(step.bandsNote)}</p>}
       <ElectricalAids aids={step.aids} transformerVa={transformerVa} />
       <ActionBar hint={askAgain ? 'Measure again.' : parsed?.ok ? undefined : 'Enter a reading to save it.'}>
         <button type="button" className="btn-primary min-w-[12rem] text-lg" disabled={!parsed?.ok || Boolean(askAgain)} onClick={save}>
