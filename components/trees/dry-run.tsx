@@ -3,46 +3,60 @@
 // A dry run of a version: the real wizard walking the graph in the browser, with no service call
 // and nothing stored. The wizard's save, undo and escalation are answered here: a reading is parsed
 // and judged against its bands as the server does (lib/units, lib/bands), a choice or confirmation
-// is echoed back. The unit record the walk branches on is chosen first.
+// is echoed back, and an undo takes the last answer off the walk kept in memory, as the server takes
+// it off a diagnosis. The unit record the walk branches on is chosen first.
 import { useMemo, useState } from 'react';
+import { z } from 'zod';
 import { Wizard, type WizardActions } from '@/components/wizard/wizard';
 import { evaluateReading } from '@/lib/bands';
 import { UNIT_FACTS, type Step, type TreeGraph, type TreeVersion, type UnitFact, type UnitFacts } from '@/lib/trees/schema';
 import { validateGraph } from '@/lib/trees/validate';
 import { parseReading } from '@/lib/units';
 import type { ActionResult, AnswerResult, ApiAnswer, DiagnosisViewOut } from '@/lib/validations/api';
-import { getStep, INITIAL_ENERGY, isAfterFinding } from '@/machines/diagnosis-machine';
+import { answerSchema, type AnswerInput } from '@/lib/validations/field';
+import { getStep, INITIAL_ENERGY, isAfterFinding, replayAnswers, type DiagnosisAnswer } from '@/machines/diagnosis-machine';
 
-type AnswerInput = {
-  diagnosisId: string;
-  answer: {
-    clientId: string;
-    stepId: string;
-    text?: string;
-    unit?: string;
-    overRange?: boolean;
-    choice?: string;
-    note?: string;
-    confirmed?: boolean;
-  };
-};
+// The same inputs the server's save and undo take (the wizard sends these shapes to either).
+const saveInputSchema = z.object({ diagnosisId: z.string(), answer: answerSchema });
+const undoInputSchema = z.object({ diagnosisId: z.string(), last: z.string().optional() });
 
-const refuse = <T,>(message: string): ActionResult<T> => ({ ok: false, code: 'bad_request', message });
+const refuse = <T,>(message: string, code: 'bad_request' | 'conflict' = 'bad_request'): ActionResult<T> => ({
+  ok: false,
+  code,
+  message,
+});
 
-function nextOf(step: Step, answer: AnswerInput['answer'], outcome?: string): string | undefined {
+function nextOf(step: Step, answer: AnswerInput, outcome?: string): string | undefined {
   if (outcome) return outcome;
   if (step.kind === 'inspect') return step.choices.find((c) => c.value === answer.choice)?.outcome;
   if (step.kind === 'action') return step.outcome;
   return undefined;
 }
 
-/** The wizard's actions for a walk nobody stores. */
-export function dryRunActions(version: TreeVersion): WizardActions {
-  let seq = 0;
+/** An answer of the walk as the diagnosis machine replays it. */
+function replayable(a: ApiAnswer): DiagnosisAnswer {
+  if (a.kind === 'measure') return a.overRange ? { stepId: a.stepId, overRange: true } : { stepId: a.stepId, value: a.value ?? Number.NaN };
+  if (a.kind === 'inspect') return { stepId: a.stepId, choice: a.choice ?? '' };
+  return { stepId: a.stepId, confirmed: true };
+}
+
+/** The readings of a walk by step, the latest of each, for bands relative to an earlier reading. */
+function readingsOf(path: readonly ApiAnswer[]): Record<string, number> {
   const readings: Record<string, number> = {};
+  for (const a of path) if (a.kind === 'measure' && typeof a.value === 'number' && Number.isFinite(a.value)) readings[a.stepId] = a.value;
+  return readings;
+}
+
+/** The wizard's actions for a walk nobody stores. */
+export function dryRunActions(version: TreeVersion, { title = '', unit }: { title?: string; unit?: UnitFacts } = {}): WizardActions {
+  let seq = 0;
+  /** The answers taken so far, in order: what an undo takes the last of. */
+  const path: ApiAnswer[] = [];
   return {
     submitAnswer: async (raw) => {
-      const { answer } = raw as AnswerInput;
+      const input = saveInputSchema.safeParse(raw);
+      if (!input.success) return refuse(input.error.issues[0]?.message ?? 'The answer is not one the wizard sends.');
+      const { answer } = input.data;
       const step = getStep(version, answer.stepId);
       if (!step) return refuse(`There is no step "${answer.stepId}" in this version.`);
       const base: ApiAnswer = {
@@ -82,12 +96,11 @@ export function dryRunActions(version: TreeVersion): WizardActions {
         }
         let evaluation;
         try {
-          evaluation = evaluateReading(step, value, readings);
+          evaluation = evaluateReading(step, value, readingsOf(path));
         } catch {
           return refuse(`No band of "${step.id}" holds this reading: the bands of this draft leave a gap.`);
         }
         if (evaluation.band.askAgain) return refuse(evaluation.band.askAgain);
-        if (Number.isFinite(value)) readings[step.id] = value;
         Object.assign(base, {
           quantity: step.quantity,
           band: evaluation.band.label,
@@ -116,6 +129,8 @@ export function dryRunActions(version: TreeVersion): WizardActions {
       const next = nextOf(step, answer, outcome);
       const found =
         step.kind === 'finding' || isAfterFinding(version, step.id) || (next !== undefined && getStep(version, next)?.kind === 'finding');
+      // The wizard may send an answer again after a lost reply: the walk keeps it once.
+      if (!path.some((a) => a.clientId === base.clientId)) path.push(base);
       return {
         ok: true,
         data: {
@@ -128,9 +143,30 @@ export function dryRunActions(version: TreeVersion): WizardActions {
         },
       };
     },
-    undoAnswer: async () => refuse('A dry run keeps no history to undo: start the dry run again to take another path.'),
+    undoAnswer: async (raw) => {
+      const input = undoInputSchema.safeParse(raw);
+      if (!input.success) return refuse('Say which dry run to undo in.');
+      const last = path.at(-1);
+      if (!last) return refuse('There is no answer to undo.', 'conflict');
+      // Named, so a second undo sent at the same time is refused instead of undoing one more.
+      if (input.data.last && input.data.last !== last.clientId) return refuse('That answer is no longer the last one.', 'conflict');
+      path.pop();
+      return { ok: true, data: viewOf(version, title, path, unit) };
+    },
     escalate: async () => refuse('A dry run cannot be escalated: nothing is stored.'),
   };
+}
+
+/** The diagnosis view of a walk: the answers so far and the finding they reached, if any. */
+export function viewOf(version: TreeVersion, title: string, path: readonly ApiAnswer[], unit?: UnitFacts): DiagnosisViewOut {
+  const replay = replayAnswers(version, path.map(replayable), { unit });
+  const reached = replay.snapshot.context.findingId ? getStep(version, replay.snapshot.context.findingId) : undefined;
+  let finding: DiagnosisViewOut['finding'] = null;
+  if (reached?.kind === 'finding') {
+    const { expects: _expects, ...shown } = reached;
+    finding = shown;
+  }
+  return { ...emptyView(version, title), status: finding ? 'found' : 'in_progress', path: [...path], finding };
 }
 
 function emptyView(version: TreeVersion, title: string): DiagnosisViewOut {
@@ -175,7 +211,7 @@ export function DryRun({
     [checked, versionId, number],
   );
   // A fresh walk (its readings and sequence) for each run.
-  const actions = useMemo(() => (tree ? dryRunActions(tree) : null), [tree, run]); // eslint-disable-line react-hooks/exhaustive-deps
+  const actions = useMemo(() => (tree ? dryRunActions(tree, { title, unit }) : null), [tree, title, unit, run]); // eslint-disable-line react-hooks/exhaustive-deps
 
   if (!checked.ok || !tree || !actions) {
     return (
