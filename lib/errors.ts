@@ -9,6 +9,8 @@ export const ERROR_STATUS = {
   conflict: 409,
   payload_too_large: 413,
   unsupported_media_type: 415,
+  /** Well-formed, but what it names cannot be done as it stands (a tree with validation problems). */
+  unprocessable: 422,
   rate_limited: 429,
   internal: 500,
   unavailable: 503,

@@ -4,7 +4,12 @@
 // server refuses the author), send back with comments per step, and publish an approved version.
 import { useRouter } from 'next/navigation';
 import { useState } from 'react';
+import type { z } from 'zod';
 import type { ActionResult, AuthoringVersionOut, VersionTransitionOut } from '@/lib/validations/api';
+import type { reviewCommentSchema } from '@/lib/validations/trees';
+
+/** A comment being written: no step chosen is "" until it is sent. */
+type CommentDraft = Required<z.input<typeof reviewCommentSchema>>;
 
 type Act = (input: unknown) => Promise<ActionResult<VersionTransitionOut>>;
 export interface ReviewActions {
@@ -27,7 +32,7 @@ export function ReviewPanel({
   const router = useRouter();
   const [busy, setBusy] = useState(false);
   const [message, setMessage] = useState<string | null>(null);
-  const [comments, setComments] = useState<{ stepId: string; text: string }[]>([{ stepId: '', text: '' }]);
+  const [comments, setComments] = useState<CommentDraft[]>([{ stepId: '', text: '' }]);
   const [returning, setReturning] = useState(false);
 
   const run = async (act: Act, input: unknown) => {

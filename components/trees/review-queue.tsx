@@ -1,16 +1,6 @@
 import Link from 'next/link';
 import { Time } from '@/components/ui/time-zone';
-import type { TreeVersionStatusOut } from '@/lib/validations/api';
-
-/** One version waiting on this lead: submitted by someone else for review, or approved and not yet published. */
-export interface WaitingReview {
-  id: string;
-  title: string;
-  version: number;
-  status: TreeVersionStatusOut;
-  submittedAt: Date | string | null;
-  submittedBy: string | null;
-}
+import type { WaitingReview } from '@/lib/validations/trees';
 
 /** A lead's home: drafts other people submitted, waiting for this lead's review, and approved versions to publish. */
 export function ReviewQueue({ reviews }: { reviews: WaitingReview[] }) {

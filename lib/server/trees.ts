@@ -28,7 +28,7 @@ import { diffGraphs } from '@/lib/trees/diff';
 import { exportTreeDocument, readTreeDocument } from '@/lib/trees/document';
 import { treeGraphSchema } from '@/lib/trees/schema';
 import { validateGraph, type GraphProblem } from '@/lib/trees/validate';
-import type { DraftGraph } from '@/lib/validations/trees';
+import { waitingReviewListSchema, type DraftGraph } from '@/lib/validations/trees';
 
 // Tree authoring: leads (and admins) create trees, start drafts, save them (each save names the
 // revision it was based on), submit them, and a *different* lead or an admin approves; publishing
@@ -62,12 +62,20 @@ export function problemsOf(graph: unknown): GraphProblem[] {
   return result.ok ? [] : result.problems;
 }
 
+/**
+ * A refusal for the tree's content (422, the problems by step id in `fieldErrors`), as opposed to a
+ * version in the wrong status or at another revision (409): the lead fixes the tree, not the timing.
+ */
 function refuseWithProblems(what: string, problems: GraphProblem[]): AppError {
   const fieldErrors: Record<string, string[]> = {};
   for (const p of problems) (fieldErrors[p.stepId ?? '_form'] ??= []).push(p.message);
-  return new AppError('conflict', `${what}: the tree has ${problems.length} problem${problems.length === 1 ? '' : 's'} to fix first.`, {
-    fieldErrors,
-  });
+  return new AppError(
+    'unprocessable',
+    `${what}: the tree has ${problems.length} problem${problems.length === 1 ? '' : 's'} to fix first.`,
+    {
+      fieldErrors,
+    },
+  );
 }
 
 function slugOf(title: string): string {
@@ -139,7 +147,7 @@ export async function getTreeForAuthoring({ scope, treeId }: { scope: Scope; tre
 
 /** A lead's home: the versions waiting for their review (submitted by someone else) or for publishing. */
 export async function listReviewsWaiting({ scope }: { scope: Scope }) {
-  return listWaitingReviews({ companyId: scope.companyId, userId: scope.userId });
+  return waitingReviewListSchema.parse(await listWaitingReviews({ companyId: scope.companyId, userId: scope.userId }));
 }
 
 export async function validateVersion({ scope, id }: { scope: Scope; id: string }) {

@@ -94,3 +94,20 @@ export const importTreeSchema = z.object(
   { document: z.unknown().refine((d) => d !== undefined, { error: 'Send the exported document as "document".' }) },
   { error: objectError('the import') },
 );
+
+/**
+ * One version waiting on a lead (a lead's home): submitted by someone else for review, or approved
+ * and not yet published. The service parses what it returns through it, and the home page's list
+ * takes its type from it.
+ */
+export const waitingReviewSchema = z.object({
+  id: z.string(),
+  treeId: z.string(),
+  title: z.string(),
+  version: z.number().int(),
+  status: z.enum(['in_review', 'approved']),
+  submittedAt: z.date().nullable(),
+  submittedBy: z.string().nullable(),
+});
+export const waitingReviewListSchema = z.array(waitingReviewSchema);
+export type WaitingReview = z.output<typeof waitingReviewSchema>;

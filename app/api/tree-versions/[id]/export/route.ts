@@ -1,4 +1,4 @@
-// GET /api/tree-versions/{id}/export – the version as an import/export document.
+// GET /api/tree-versions/{id}/export – the version as an import/export document; 422 with the problems for a draft that has any.
 import { routeOf } from '@/lib/server/operation';
 import { exportVersionOp } from '@/lib/server/operations/trees';
 
