@@ -9,7 +9,9 @@ import { createIgnitionSequenceMachine, DEFAULT_CONTROL_PROFILE, type ControlPro
 import { buildCircuit, elementOhms, lineLive, nodeExists, type CircuitState, type NodeId } from '@/lib/bench/circuit';
 import { BenchClock } from '@/lib/bench/clock';
 import { getFault, type Fault, type FaultEffect } from '@/lib/bench/faults';
+import { FLAME_TEST_PROFILES, type FlameTestMethodId } from '@/lib/trees/control-profiles';
 import {
+  FLAME_TEST_POINTS,
   GAUGES,
   INDUCED_DRAFT_POINTS,
   LEADS,
@@ -113,9 +115,20 @@ export interface CreateBenchOptions {
   faultId?: string | null;
   seed?: number;
   profile?: Partial<ControlProfile>;
+  /**
+   * The control's own flame-signal test (lib/trees/control-profiles.ts): test terminals read in DC
+   * volts (the default) or a status light read against its legend.
+   */
+  flameTest?: FlameTestMethodId;
 }
 
-export function createBench({ unit: unitIn, faultId = null, seed = 1, profile: profileIn }: CreateBenchOptions = {}): Bench {
+export function createBench({
+  unit: unitIn,
+  faultId = null,
+  seed = 1,
+  profile: profileIn,
+  flameTest = 'dc-test-terminals',
+}: CreateBenchOptions = {}): Bench {
   const unit: BenchUnit = { ...DEFAULT_BENCH_UNIT, ...unitIn };
   const fault = faultId === null ? null : (getFault(faultId) ?? null);
   if (faultId !== null && !fault) throw new BenchRefusal('invalid', `There is no fault "${faultId}" in the bench's library.`);
@@ -132,6 +145,11 @@ export function createBench({ unit: unitIn, faultId = null, seed = 1, profile: p
   let callSent = false;
   let safetySent: boolean | null = null;
   let wasRunning = false;
+  // What the technician could have seen since the call began: a spark (at the gap or off it), flame.
+  let seenSpark = false;
+  let seenFlame = false;
+  const flameTestProfile = FLAME_TEST_PROFILES[flameTest];
+  if (!flameTestProfile) throw new BenchRefusal('invalid', `There is no flame-signal test "${String(flameTest)}".`);
 
   // What does not change over the session: does the gas light at the valve, is the flame proven.
   const inletInWC = effect?.gas?.inletInWC ?? gas.inlet * (effect?.gas?.inletFactor ?? 1);
@@ -218,7 +236,11 @@ export function createBench({ unit: unitIn, faultId = null, seed = 1, profile: p
       actor.send({ type: safety ? 'safety.close' : 'safety.open' });
       safetySent = safety;
     }
-    const running = actor.getSnapshot().matches('running');
+    const snap = actor.getSnapshot();
+    if (controlPowered() && snap.hasTag('spark') && effect?.control?.spark !== false && effect?.spark !== 'heard-not-seen')
+      seenSpark = true;
+    if (flameNow()) seenFlame = true;
+    const running = snap.matches('running');
     if (running && !wasRunning && effect?.rolloutRetrips && rolloutReset) {
       clock.setTimeout(() => {
         rolloutReset = false;
@@ -302,10 +324,37 @@ export function createBench({ unit: unitIn, faultId = null, seed = 1, profile: p
     return id;
   };
 
+  /** The control's flame-signal test terminals: DC volts following the flame current (its profile). */
+  const flameTestReading = (mode: MeterMode, a: string, b: string): Reading => {
+    if (flameTestProfile.method !== 'dc-volts')
+      throw new BenchRefusal(
+        'not-on-this-unit',
+        'This control has no flame-signal test terminals: read its status light against its legend.',
+      );
+    if (!(FLAME_TEST_POINTS as readonly string[]).includes(a) || !(FLAME_TEST_POINTS as readonly string[]).includes(b) || a === b)
+      throw new BenchRefusal('invalid', 'Put the meter leads on the two flame-signal test terminals of the control (+ and −).');
+    if (mode === 'ohm') {
+      if (powered) throw powerOnForOhms();
+      return ohmsReading(Infinity);
+    }
+    const s = state();
+    const ua = flameNow() && s.rodPowered ? microampsWithFlame : 0;
+    const sign = a === 'flame-test-plus' ? 1 : -1;
+    if (mode === 'vac') return { value: display(Math.abs(0.02 * noise()), 2), unit: METER_UNITS.vac, time: time() };
+    if (mode !== 'vdc') throw new BenchRefusal('invalid', 'The flame-signal test terminals are read in DC volts.');
+    const volts = ua * flameTestProfile.voltsPerMicroamp * (1 + 0.01 * noise()) + 0.01 * noise();
+    return { value: display(sign * volts, 2), unit: METER_UNITS.vdc, time: time() };
+  };
+
   const measure = (request: MeasureRequest): Reading => {
     const mode = request.mode as MeterMode;
     if (!(mode in METER_UNITS)) throw new BenchRefusal('invalid', `The meter has no "${String(mode)}" function.`);
     const unitSymbol = METER_UNITS[mode];
+    if ('a' in request && mode !== 'udc') {
+      const onTest =
+        (FLAME_TEST_POINTS as readonly string[]).includes(request.a) || (FLAME_TEST_POINTS as readonly string[]).includes(request.b);
+      if (onTest) return flameTestReading(mode, request.a, request.b);
+    }
     if (mode === 'udc') {
       if (!('series' in request))
         throw new BenchRefusal('not-series', 'Microamps are read with the meter in series: open a lead and put the meter in it.');
@@ -417,6 +466,13 @@ export function createBench({ unit: unitIn, faultId = null, seed = 1, profile: p
         if (microampsWithFlame >= 2) return 'good';
         return microampsWithFlame > 0.1 ? 'weak' : 'none';
       }
+      case 'trial': {
+        if (flameNow() && snap?.matches('running')) return 'stays-lit';
+        if (seenFlame) return 'lights-drops';
+        return seenSpark ? 'spark-no-flame' : 'no-spark';
+      }
+      case 'flame-test-method':
+        return flameTestProfile.id;
       default:
         return looked ?? OBSERVATIONS[what].results[0];
     }
@@ -427,6 +483,8 @@ export function createBench({ unit: unitIn, faultId = null, seed = 1, profile: p
       case 'power-on':
         if (!powered) {
           powered = true;
+          seenSpark = false;
+          seenFlame = false;
           if (controlPowered()) startControl();
         }
         break;
@@ -437,6 +495,10 @@ export function createBench({ unit: unitIn, faultId = null, seed = 1, profile: p
         }
         break;
       case 'call-for-heat':
+        if (!calling) {
+          seenSpark = false;
+          seenFlame = false;
+        }
         calling = true;
         sync();
         break;

@@ -24,6 +24,12 @@ export const POINT_LABELS = {
   'flame-rod': 'Flame rod',
   burner: 'Burner and its grounded frame',
   'ground-lead': 'Flame ground lead, control end',
+  // Added after the first contract (additions only): the control's own valve output terminal, and
+  // the flame-signal test terminals of a control that has them (read in DC volts, see
+  // lib/trees/control-profiles.ts).
+  'valve-out': "Control's valve output terminal (at the control)",
+  'flame-test-plus': "Control's flame-signal test terminal (+)",
+  'flame-test-minus': "Control's flame-signal test terminal (−)",
 } as const;
 
 export type PointId = keyof typeof POINT_LABELS;
@@ -45,6 +51,8 @@ export type LeadId = (typeof LEADS)[number];
 /** Points that exist only on some units. */
 export const INDUCED_DRAFT_POINTS: readonly PointId[] = ['inducer-hot', 'ps-in', 'ps-out'];
 export const TWO_ROD_POINTS: readonly PointId[] = ['flame-rod'];
+/** The control's flame-signal test terminals: on a control whose flame test is read in DC volts. */
+export const FLAME_TEST_POINTS: readonly PointId[] = ['flame-test-plus', 'flame-test-minus'];
 
 export const METER_MODES = ['vac', 'vdc', 'ohm', 'udc'] as const;
 export type MeterMode = (typeof METER_MODES)[number];
@@ -61,7 +69,9 @@ export type GaugeId = keyof typeof GAUGES;
 /**
  * What a technician can observe, with every result it can have. `spark` and `flame` are watched
  * with the unit running (the bench API's observe); the others are looks at a part — `inducer`,
- * `thermostat` and `flame-test` with power on, the rest with the power off (handling rods and leads).
+ * `thermostat` and `flame-test` with power on, the rest with the power off (handling rods and leads);
+ * `trial` is what the trial for ignition showed since the call began, `flame-test-method` which
+ * flame-signal test the control's label and instructions give.
  */
 export const OBSERVATIONS = {
   spark: { results: ['at-gap', 'heard-not-seen', 'to-frame', 'none'], power: 'on' },
@@ -79,6 +89,11 @@ export const OBSERVATIONS = {
   'burner-surface': { results: ['clean', 'rusted'], power: 'off' },
   'carry-over': { results: ['clear', 'rusted'], power: 'off' },
   orifices: { results: ['clear', 'blocked'], power: 'off' },
+  // What one trial for ignition showed, watched from the call (what was seen since the call began:
+  // no spark seen, a spark but no flame, flame that went out, flame that holds).
+  trial: { results: ['no-spark', 'spark-no-flame', 'lights-drops', 'stays-lit'], power: 'on' },
+  // Which flame-signal test the control provides (its label and instructions).
+  'flame-test-method': { results: ['dc-test-terminals', 'status-light'], power: 'any' },
 } as const satisfies Record<string, { results: readonly string[]; power: 'on' | 'off' | 'any' }>;
 
 export type ObservationKind = keyof typeof OBSERVATIONS;

@@ -178,6 +178,11 @@ export const inspectStepSchema = z.object({
   /** A note the technician writes with the choice (what a status light shows, against the control's own legend). */
   note: z.object({ label: z.string().trim().min(1), required: z.boolean().default(false) }).optional(),
   observe: observationSchema.optional(),
+  /**
+   * Further looks, in order, for a result of `observe` that maps to none of the choices (a step that
+   * looks at the hose, then at the port): the first result that maps to a choice decides.
+   */
+  observeMore: z.array(observationSchema).optional(),
 });
 
 /** Facts of the unit record a tree can branch on, with the values each can take. */

@@ -114,13 +114,16 @@ export function checkGraph(graph: TreeGraph): GraphProblem[] {
         }
         values.add(choice.value);
       }
-      if (step.observe) {
-        const results: readonly string[] = OBSERVATIONS[step.observe.what].results;
-        for (const [result, choice] of Object.entries(step.observe.choices)) {
+      if (step.observeMore?.length && !step.observe) {
+        problems.push({ stepId: step.id, message: `Step "${step.id}" has further observations but no first one (observe)` });
+      }
+      for (const observation of [...(step.observe ? [step.observe] : []), ...(step.observeMore ?? [])]) {
+        const results: readonly string[] = OBSERVATIONS[observation.what].results;
+        for (const [result, choice] of Object.entries(observation.choices)) {
           if (!results.includes(result)) {
             problems.push({
               stepId: step.id,
-              message: `Step "${step.id}": "${result}" is not a result of observing ${step.observe.what} (${results.join(', ')})`,
+              message: `Step "${step.id}": "${result}" is not a result of observing ${observation.what} (${results.join(', ')})`,
             });
           }
           if (!values.has(choice)) {

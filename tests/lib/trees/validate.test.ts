@@ -233,4 +233,24 @@ describe('probes and observations (what the bench answers a step from)', () => {
     expect(messages).toContain('Step "look": "at-gap" is not a result of observing flame (all-burners, partial, none)');
     expect(messages).toContain('Step "look": the observation maps "none" to "missing", which is not one of its choices');
   });
+
+  it('checks further observations like the first, and refuses them without a first one', () => {
+    const ok = mutate((steps) => {
+      step(steps, 'look').observe = { what: 'pressure-hose', choices: { faulty: 'bad' } };
+      step(steps, 'look').observeMore = [{ what: 'pressure-port', choices: { blocked: 'bad', clear: 'good' } }];
+    });
+    expect(validateGraph(ok).ok).toBe(true);
+    const wrong = mutate((steps) => {
+      step(steps, 'look').observe = { what: 'pressure-hose', choices: { faulty: 'bad' } };
+      step(steps, 'look').observeMore = [{ what: 'pressure-port', choices: { kinked: 'bad', clear: 'nowhere' } }];
+    });
+    expect(problemsOf(wrong).map((p) => p.message)).toEqual([
+      'Step "look": "kinked" is not a result of observing pressure-port (clear, blocked)',
+      'Step "look": the observation maps "clear" to "nowhere", which is not one of its choices',
+    ]);
+    const alone = mutate((steps) => {
+      step(steps, 'look').observeMore = [{ what: 'vent', choices: { blocked: 'bad' } }];
+    });
+    expect(problemsOf(alone)).toEqual([{ stepId: 'look', message: 'Step "look" has further observations but no first one (observe)' }]);
+  });
 });
