@@ -5,6 +5,7 @@
 // until the lead chooses, and the choice is then saved on top of the other save's revision.
 import { useMemo, useState } from 'react';
 import { mergeGraphs, stepConflicts, type StepConflict } from '@/components/trees/editor/graph-edit';
+import { fieldLabel, stepFieldTexts } from '@/lib/trees/diff';
 import type { Step, TreeGraph } from '@/lib/trees/schema';
 
 export interface ConflictViewProps {
@@ -15,26 +16,25 @@ export interface ConflictViewProps {
   onResolve: (graph: TreeGraph) => void;
 }
 
-function shown(value: unknown): string {
-  if (value === undefined) return '—';
-  return typeof value === 'string' ? value : JSON.stringify(value);
-}
-
-/** One side of a conflicting step: its title and the fields where it differs from the other side. */
+/**
+ * One side of a conflicting step: its title and the fields where it differs from the other side,
+ * each as a person reads it (bands as ranges with units and where they lead, choices as label →
+ * target, cautions as signal word and text), the way the diff page shows them.
+ */
 function StepSummary({ step, other }: { step: Step | null; other: Step | null }) {
   if (!step) return <p className="text-sm italic text-muted">Not in this version (deleted)</p>;
-  const a = step as unknown as Record<string, unknown>;
-  const b = (other ?? {}) as Record<string, unknown>;
-  const fields = [...new Set([...Object.keys(a), ...Object.keys(b)])].filter((k) => JSON.stringify(a[k]) !== JSON.stringify(b[k]));
+  const mine = stepFieldTexts(step, { targets: true });
+  const theirs = stepFieldTexts(other, { targets: true });
+  const fields = [...new Set([...mine.keys(), ...theirs.keys()])].filter((k) => (mine.get(k) ?? '') !== (theirs.get(k) ?? ''));
   return (
     <div className="space-y-1 text-sm">
       <p className="font-semibold">{step.title || <em>Untitled</em>}</p>
       {other ? (
-        <dl className="space-y-1">
+        <dl className="space-y-2">
           {fields.map((k) => (
-            <div key={k}>
-              <dt className="font-mono text-xs text-muted">{k}</dt>
-              <dd className="max-h-24 overflow-auto whitespace-pre-wrap break-words">{shown(a[k])}</dd>
+            <div key={k} data-field={k}>
+              <dt className="text-xs font-semibold uppercase tracking-wide text-muted">{fieldLabel(k)}</dt>
+              <dd className="max-h-40 overflow-auto whitespace-pre-wrap break-words">{mine.get(k) || '—'}</dd>
             </div>
           ))}
         </dl>

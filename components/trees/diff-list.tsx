@@ -1,3 +1,4 @@
+import { fieldLabel } from '@/lib/trees/diff';
 import type { TreeDiffOut } from '@/lib/validations/api';
 
 /** A diff between two versions as a list: steps added, removed, changed field by field, outcomes rewired. */
@@ -54,7 +55,7 @@ export function DiffList({ diff }: { diff: TreeDiffOut }) {
                 <tbody>
                   {s.fields.map((f) => (
                     <tr key={f.field} className="border-t border-line align-top">
-                      <td className="py-1 pr-2 font-mono">{f.field}</td>
+                      <td className="py-1 pr-2 font-semibold">{fieldLabel(f.field)}</td>
                       <td className="whitespace-pre-wrap break-words py-1 pr-2">
                         <del>{f.before || '—'}</del>
                       </td>

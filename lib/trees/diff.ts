@@ -2,6 +2,7 @@
 // by field (a measure step's bands as ranges), and outcomes rewired (a band, choice, case or
 // confirmation that now leads somewhere else). Works on drafts too, whose graphs may not yet pass
 // the schema: steps are read as plain objects, and anything not understood compares as JSON.
+import { momentLabel, observationText, probeText } from '@/lib/trees/probe-words';
 import { CANONICAL_UNITS, type Quantity } from '@/lib/trees/schema';
 
 export interface StepRef {
@@ -67,10 +68,142 @@ export function bandRange(band: unknown, quantity?: unknown): string {
   return `[${from}, ${to})${unit} "${text(band.label)}"`;
 }
 
-function bandsText(step: Obj): string {
-  const bands = Array.isArray(step.bands) ? step.bands : [];
-  return bands.map((b) => `${bandRange(b, step.quantity)} (${text(isObj(b) ? b.verdict : '')})`).join('; ');
+export interface FieldTextOptions {
+  /**
+   * Say where each band, choice and case leads. The conflict view does (a different target is a
+   * difference to pick between); the diff leaves it out and lists those edges as rewiring.
+   */
+  targets?: boolean;
 }
+
+const where = (v: unknown) => (typeof v === 'string' && v !== '' ? v : 'not connected');
+
+function bandsText(step: Obj, { targets }: FieldTextOptions = {}): string {
+  const bands = Array.isArray(step.bands) ? step.bands : [];
+  return bands
+    .map((b) => {
+      const band = `${bandRange(b, step.quantity)} (${text(isObj(b) ? b.verdict : '')})`;
+      if (!targets || !isObj(b)) return band;
+      return typeof b.askAgain === 'string' ? `${band} → measure again: ${b.askAgain}` : `${band} → ${where(b.outcome)}`;
+    })
+    .join('\n');
+}
+
+const lines = (v: unknown) => (Array.isArray(v) ? v.map(text).join('\n') : text(v));
+
+const NEED: Record<string, string> = { on: 'on', off: 'off', any: 'either' };
+
+/** What one field of a step says, for a person: bands as ranges with units, cautions by signal word, and so on. */
+export function fieldText(step: unknown, field: string, options: FieldTextOptions = {}): string {
+  if (!isObj(step)) return '';
+  const value = step[field];
+  if (value === undefined) return '';
+  switch (field) {
+    case 'bands':
+      return bandsText(step, options);
+    case 'choices':
+    case 'cases': {
+      const list = Array.isArray(value) ? value : [];
+      return list
+        .map((c) => {
+          if (!isObj(c)) return text(c);
+          const label = field === 'cases' ? text(c.value) : `${text(c.label)} (${text(c.value)})`;
+          return options.targets ? `${label} → ${where(c.outcome)}` : label;
+        })
+        .join('\n');
+    }
+    case 'cautions':
+      return (Array.isArray(value) ? value : []).map((c) => (isObj(c) ? `${text(c.signal)}: ${text(c.text)}` : text(c))).join('\n');
+    case 'energy':
+      if (typeof value === 'string') return value;
+      return isObj(value)
+        ? `electricity ${NEED[text(value.electric)] ?? text(value.electric)}, gas ${NEED[text(value.gas)] ?? text(value.gas)}`
+        : text(value);
+    case 'handles':
+      return Array.isArray(value) ? (value.length ? `parts fed by ${value.map(text).join(' and ')}` : 'no parts') : text(value);
+    case 'points':
+      return Array.isArray(value) ? value.map(text).join(' – ') : text(value);
+    case 'checklist':
+    case 'parts':
+    case 'verification':
+    case 'tags':
+    case 'aids':
+      return lines(value);
+    case 'probe':
+      return probeText(value);
+    case 'at':
+      return typeof value === 'string' ? momentLabel(value) : text(value);
+    case 'observe': {
+      const choices = Array.isArray(step.choices) ? step.choices.filter(isObj) : [];
+      return observationText(value, (v) => {
+        const choice = choices.find((c) => c.value === v);
+        return choice ? `${text(choice.label)} (${v})` : `${v} (no such choice)`;
+      });
+    }
+    case 'timeline':
+      return value === true ? 'shown beside the step' : value === false ? 'not shown' : text(value);
+    case 'reference':
+      return isObj(value)
+        ? `offsets from the reading of ${text(value.step)} (stands in when not read: ${text(value.fallback)})`
+        : text(value);
+    case 'note':
+      return isObj(value) ? `${text(value.label)}${value.required === true ? ' (required)' : ''}` : text(value);
+    case 'expects':
+      return (Array.isArray(value) ? value : [])
+        .map((e) => (isObj(e) ? `${text(e.step)} in [${limit(e.from, '−∞')}, ${limit(e.to, '+∞')}): ${text(e.reason)}` : text(e)))
+        .join('\n');
+    case 'outcome':
+      return where(value);
+    default:
+      return typeof value === 'number' || typeof value === 'boolean' ? String(value) : text(value);
+  }
+}
+
+/** The fields of a step, each as a person reads it (see fieldText); never the id, and the outcome only with `targets`. */
+export function stepFieldTexts(step: unknown, options: FieldTextOptions = {}): Map<string, string> {
+  const fields = new Map<string, string>();
+  if (!isObj(step)) return fields;
+  for (const key of Object.keys(step)) {
+    if (key === 'id' || (key === 'outcome' && !options.targets)) continue;
+    fields.set(key, fieldText(step, key, options));
+  }
+  return fields;
+}
+
+/** A field's name as a person reads it. */
+export const FIELD_LABELS: Record<string, string> = {
+  kind: 'Kind',
+  title: 'Title',
+  instruction: 'Instruction',
+  cautions: 'Cautions',
+  why: 'Why this step',
+  energy: 'Energy it needs',
+  handles: 'Parts it handles',
+  timeline: 'Ignition sequence',
+  quantity: 'Quantity',
+  points: 'Test points',
+  bands: 'Bands',
+  reference: 'Relative to',
+  bandsNote: 'Where the bands come from',
+  aids: 'Aids',
+  probe: 'Where the meter goes',
+  at: 'When in the sequence',
+  choices: 'Choices',
+  note: 'Note',
+  observe: 'What is observed',
+  fact: 'Fact of the unit record',
+  cases: 'Cases',
+  checklist: 'Checklist',
+  outcome: 'Leads to',
+  explanation: 'Explanation',
+  remedy: 'Remedy',
+  parts: 'Parts',
+  verification: 'Verification checks',
+  tags: 'Tags',
+  expects: 'Readings it expects',
+};
+
+export const fieldLabel = (field: string) => FIELD_LABELS[field] ?? field;
 
 /** The fields whose changes are outcomes (compared as rewiring), not content. */
 const WIRING = new Set(['id', 'outcome']);
@@ -94,15 +227,8 @@ function edgesOf(step: Obj): Map<string, string | null> {
 
 /** A step's content without its targets, field by field, as text. */
 function contentOf(step: Obj): Map<string, string> {
-  const fields = new Map<string, string>();
-  for (const [key, value] of Object.entries(step)) {
-    if (WIRING.has(key)) continue;
-    if (key === 'bands') fields.set(key, bandsText(step));
-    else if (key === 'choices' || key === 'cases') {
-      const list = Array.isArray(value) ? value : [];
-      fields.set(key, list.map((c) => (isObj(c) ? `${text(c.value)}: ${text(c.label)}` : text(c))).join('; '));
-    } else fields.set(key, text(value));
-  }
+  const fields = stepFieldTexts(step);
+  for (const key of WIRING) fields.delete(key);
   return fields;
 }
 

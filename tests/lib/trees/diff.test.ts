@@ -1,6 +1,6 @@
 import { NO_HEAT_DSI_R1 } from '@/lib/trees/builtin/no-heat-dsi-r1';
 import { DEFAULT_TREE_GRAPH } from '@/lib/trees/default-tree';
-import { bandRange, diffGraphs, isEmptyDiff } from '@/lib/trees/diff';
+import { bandRange, diffGraphs, fieldText, isEmptyDiff } from '@/lib/trees/diff';
 import { treeGraphSchema } from '@/lib/trees/schema';
 
 // The diff of two tree versions on a known pair (revision 1 and 2 of the built-in tree, whose step
@@ -88,5 +88,42 @@ describe('drafts that do not pass the schema', () => {
     expect(diff.removed.map((s) => s.stepId)).toEqual(['a']);
     expect(diff.added.map((s) => s.stepId)).toEqual(['b']);
     expect(isEmptyDiff(diffGraphs(null, undefined))).toBe(true);
+  });
+});
+
+describe('fields as a person reads them', () => {
+  it('says cautions by signal word, choices by label, the probe and the observation in words', () => {
+    const base = {
+      id: 's',
+      kind: 'inspect',
+      title: 'Watch the spark',
+      cautions: [{ signal: 'WARNING', text: 'Line voltage at the control.' }],
+      choices: [
+        { value: 'good', label: 'Sparks', outcome: 'next' },
+        { value: 'none', label: 'No spark', outcome: '' },
+      ],
+      observe: { what: 'spark', at: 'proving', choices: { 'at-gap': 'good', none: 'none' } },
+    };
+    expect(fieldText(base, 'cautions')).toBe('WARNING: Line voltage at the control.');
+    expect(fieldText(base, 'choices')).toBe('Sparks (good)\nNo spark (none)');
+    expect(fieldText(base, 'choices', { targets: true })).toBe('Sparks (good) → next\nNo spark (none) → not connected');
+    expect(fieldText(base, 'observe')).toBe(
+      'The spark at the spark rod, during the trial for ignition\nSparks across the gap → Sparks (good)\nNone → No spark (none)',
+    );
+    expect(fieldText({ probe: { a: 'xfmr-hot', b: 'xfmr-common' } }, 'probe')).toBe(
+      'Leads on Transformer secondary, 24 V side (R) and Transformer secondary, common (C)',
+    );
+    expect(fieldText({ probe: { series: 'flame-rod-lead' } }, 'probe')).toBe('In series in the flame-rod lead');
+    expect(fieldText({ energy: { electric: 'off', gas: 'any' } }, 'energy')).toBe('electricity off, gas either');
+  });
+
+  it('lists a changed caution in the diff in words', () => {
+    const before = copy(r2);
+    const after = copy(r2);
+    const step = after.steps.find((s) => s.id === 'flame-signal')!;
+    step.cautions = [...step.cautions, { signal: 'CAUTION', text: 'Hot surfaces.' }];
+    const field = diffGraphs(before, after).changed[0].fields.find((f) => f.field === 'cautions');
+    expect(field?.after).toContain('CAUTION: Hot surfaces.');
+    expect(field?.after).not.toContain('{');
   });
 });
