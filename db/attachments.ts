@@ -13,6 +13,8 @@ export interface Attachment {
   id: string;
   callId: string;
   answerId: string | null;
+  /** The client id the wizard made for the answer (it knows its answers by that id). */
+  answerClientId: string | null;
   diagnosisId: string | null;
   ownerId: string | null;
   ownerName: string | null;
@@ -34,6 +36,7 @@ const COLUMNS = [
   'a.id',
   'a.call_id',
   'a.answer_id',
+  'an.client_id as answer_client_id',
   'a.diagnosis_id',
   'a.owner_id',
   'o.name as owner_name',
@@ -52,6 +55,7 @@ function toAttachment(row: Record<string, unknown>): Attachment {
     id: row.id as string,
     callId: row.call_id as string,
     answerId: (row.answer_id as string | null) ?? null,
+    answerClientId: (row.answer_client_id as string | null) ?? null,
     diagnosisId: (row.diagnosis_id as string | null) ?? null,
     ownerId: (row.owner_id as string | null) ?? null,
     ownerName: (row.owner_name as string | null) ?? null,
@@ -73,6 +77,7 @@ export async function listAttachmentsForCall(
 ): Promise<Attachment[]> {
   const rows = await trx('attachments as a')
     .leftJoin('users as o', 'o.id', 'a.owner_id')
+    .leftJoin('answers as an', 'an.id', 'a.answer_id')
     .where({ 'a.company_id': companyId, 'a.call_id': callId })
     .select(COLUMNS)
     .orderBy([{ column: 'a.created_at' }, { column: 'a.id' }]);
@@ -85,6 +90,7 @@ export async function getAttachment({ scope, id }: { scope: Scope; id: string },
   const q = trx('attachments as a')
     .join('service_calls as c', 'c.id', 'a.call_id')
     .leftJoin('users as o', 'o.id', 'a.owner_id')
+    .leftJoin('answers as an', 'an.id', 'a.answer_id')
     .where('a.id', id)
     .select([...COLUMNS, 'c.status as call_status']);
   const row = await scopeCalls(q, scope, 'c').first();

@@ -101,3 +101,15 @@ export async function processImage(input: Buffer): Promise<ProcessedImage> {
   const thumb = await draw(THUMB_SIDE, 70);
   return { type, display, thumb, original: { size: input.length, width, height } };
 }
+
+/**
+ * A stored thumbnail (WebP) as JPEG for the PDF: the renderer embeds JPEG and PNG only. Flattened
+ * on white, as a page is; at most THUMB_SIDE a side, so a report of many photos stays small.
+ */
+export async function thumbnailForPdf(stored: Buffer): Promise<Buffer> {
+  return sharp(stored, { limitInputPixels: MAX_PIXELS })
+    .resize({ width: THUMB_SIDE, height: THUMB_SIDE, fit: 'inside', withoutEnlargement: true })
+    .flatten({ background: '#ffffff' })
+    .jpeg({ quality: 82 })
+    .toBuffer();
+}

@@ -3,6 +3,7 @@ import type { ReactNode } from 'react';
 import type { EnergyState, FindingStep, TreeVersion } from '@/lib/trees/schema';
 import { formatReading } from '@/lib/units';
 import { getStep } from '@/machines/diagnosis-machine';
+import { PhotoControl } from '@/components/photos/photo-control';
 import { CautionList } from '@/components/ui/caution';
 import { Time } from '@/components/ui/time-zone';
 import { ActionBar } from '@/components/wizard/action-bar';
@@ -29,6 +30,8 @@ export interface FindingScreenProps {
   finding: FindingStep;
   version: TreeVersion;
   callId: string;
+  /** The diagnosis that reached the finding: its photos (what was found, the part replaced) attach to it. */
+  diagnosisId?: string;
   /** null while the server has not confirmed the finding yet (answers still waiting to be saved). */
   contradictions: ContradictionView[] | null;
   needsSignOff: boolean;
@@ -45,6 +48,7 @@ export function FindingScreen({
   finding,
   version,
   callId,
+  diagnosisId,
   contradictions,
   needsSignOff,
   signedOff,
@@ -165,6 +169,22 @@ export function FindingScreen({
           )}
         </div>
       </section>
+      {diagnosisId && (
+        <section aria-labelledby="finding-photos-h" className="card space-y-3" data-testid="finding-photos">
+          <div>
+            <h2 id="finding-photos-h" className="text-lg font-bold">
+              Photos of the finding
+            </h2>
+            <p className="text-base text-muted">What you found and the part you replaced; they go into the report.</p>
+          </div>
+          <PhotoControl
+            callId={callId}
+            findingId={diagnosisId}
+            subject={`the finding “${finding.title}”`}
+            disabledReason={contradictions === null ? 'Photos once the finding is saved.' : null}
+          />
+        </section>
+      )}
       {contradictions === null && (
         <p className="text-base text-muted">Checking this finding against the readings once every answer is saved…</p>
       )}

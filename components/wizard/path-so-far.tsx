@@ -1,4 +1,5 @@
 import type { PathItem } from '@/machines/wizard-machine';
+import { PhotoControl } from '@/components/photos/photo-control';
 import { VERDICT_ICON, VERDICT_WORD } from '@/components/wizard/band-gauge';
 import { formatEntry, OVER_RANGE_TEXT } from '@/lib/units';
 
@@ -19,8 +20,15 @@ function answerText(item: PathItem) {
   return 'Done';
 }
 
-/** The answers given so far, oldest first; collapsed so the current step keeps the screen. */
-export function PathSoFar({ items }: { items: PathItem[] }) {
+/** Readings and observations take photos; a checklist or a unit-record branch has nothing to show. */
+const takesPhotos = (item: PathItem) => item.kind === 'measure' || item.kind === 'inspect';
+
+/**
+ * The answers given so far, oldest first; collapsed so the current step keeps the screen. With the
+ * call's id, each reading and observation has its photos and an "Add photo" (once it is saved: the
+ * server attaches a photo to a stored answer, by the client id the wizard made for it).
+ */
+export function PathSoFar({ items, callId }: { items: PathItem[]; callId?: string }) {
   if (items.length === 0) return null;
   return (
     <details className="rounded-lg border border-line bg-raised" data-testid="path-so-far">
@@ -44,6 +52,17 @@ export function PathSoFar({ items }: { items: PathItem[] }) {
               )}
               {!item.saved && <span className="ml-2 text-base italic text-muted">(not saved yet)</span>}
             </span>
+            {callId && takesPhotos(item) && (
+              <div className="col-start-2 mt-2 sm:col-span-2">
+                <PhotoControl
+                  callId={callId}
+                  answerId={item.clientId}
+                  subject={item.stepTitle}
+                  compact
+                  disabledReason={item.saved ? null : 'Photos once the answer is saved.'}
+                />
+              </div>
+            )}
           </li>
         ))}
       </ol>

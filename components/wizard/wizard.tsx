@@ -223,7 +223,7 @@ export function Wizard({
   const canEscalate = !escalated && phase !== 'done' && view.callStatus !== 'closed' && view.callStatus !== 'referred';
   const footer = (
     <div className="space-y-4">
-      <PathSoFar items={items} />
+      <PathSoFar items={items} callId={callId} />
       {correctUnitHref && items.some((i) => i.kind === 'fact') && (
         <p className="text-base text-muted">
           Some answers came from the unit record.{' '}
@@ -280,13 +280,14 @@ export function Wizard({
       </div>
 
       {escalated ? (
-        <EscalatedScreen view={view} callId={callId} footer={<PathSoFar items={items} />} />
+        <EscalatedScreen view={view} callId={callId} footer={<PathSoFar items={items} callId={callId} />} />
       ) : finding && (phase === 'repair' || phase === 'done') ? (
         <FindingScreen
           key={phase}
           finding={finding}
           version={version}
           callId={callId}
+          diagnosisId={diagnosisId}
           mode={phase === 'done' ? 'done' : 'repair'}
           energy={ctx.energy}
           contradictions={check ? check.contradictions : null}

@@ -28,6 +28,7 @@ export function attachmentView(a: Attachment) {
     url: `/api/attachments/${a.id}`,
     thumbnailUrl: `/api/attachments/${a.id}?size=thumb`,
     answerId: a.answerId,
+    answerClientId: a.answerClientId,
     findingId: a.diagnosisId,
     width: a.width,
     height: a.height,

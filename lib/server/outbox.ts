@@ -11,6 +11,7 @@ import { reportFileName } from '@/lib/pdf/report-model';
 import type { Scope } from '@/lib/policy';
 import { getCallReport } from '@/lib/server/calls';
 import { queueMail } from '@/lib/server/outbox-worker';
+import { reportPhotos } from '@/lib/server/report-photos';
 import { callReportSchema } from '@/lib/validations/api';
 import type { ReportEmailInput } from '@/lib/validations/mail';
 
@@ -23,7 +24,8 @@ async function reportOf(scope: Scope, id: string) {
 /** The report as a PDF, customer copy or office record. */
 export async function reportPdf({ scope, id, version }: { scope: Scope; id: string; version: 'customer' | 'office' }) {
   const report = await reportOf(scope, id);
-  return { filename: reportFileName(report, version), pdf: await renderReportPdf({ report, version }) };
+  const photos = await reportPhotos({ scope, callId: id });
+  return { filename: reportFileName(report, version), pdf: await renderReportPdf({ report, version, photos }) };
 }
 
 /** What the send form starts from: the recipients, subject and message, and the call's earlier e-mails. */
@@ -47,7 +49,7 @@ export async function previewReportEmail({ scope, id }: { scope: Scope; id: stri
  */
 export async function sendReportEmail({ scope, id, input }: { scope: Scope; id: string; input: ReportEmailInput }) {
   const report = await reportOf(scope, id);
-  const pdf = await renderReportPdf({ report, version: 'customer' });
+  const pdf = await renderReportPdf({ report, version: 'customer', photos: await reportPhotos({ scope, callId: id }) });
   return queueMail({
     companyId: scope.companyId,
     callId: id,

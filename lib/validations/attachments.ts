@@ -38,6 +38,8 @@ export const attachmentSchema = z.object({
   url: z.string(),
   thumbnailUrl: z.string(),
   answerId: z.string().nullable(),
+  /** The client id of that answer: the wizard knows its answers by it. */
+  answerClientId: z.string().nullable().default(null),
   findingId: z.string().nullable(),
   width: z.number().int(),
   height: z.number().int(),

@@ -16,6 +16,7 @@ let ownCall: string;
 let leadCall: string;
 let closedCall: string;
 let answerId: string;
+const answerClientId = randomUUID();
 
 async function callFor(email: string, status = 'diagnosing') {
   const owner = await db('users').whereRaw('lower(email) = ?', [email]).first('id', 'company_id');
@@ -59,7 +60,7 @@ beforeAll(async () => {
     .insert({
       company_id: own.owner.company_id,
       diagnosis_id: diagnosis.id,
-      client_id: randomUUID(),
+      client_id: answerClientId,
       seq: 1,
       step_id: 'flame-signal',
       step_kind: 'measure',
@@ -163,6 +164,19 @@ describe('GET and DELETE /api/attachments/{id}', () => {
     expect(removed.status).toBe(200);
     expect(await db('attachments').where({ id: made.json.id }).first()).toBeUndefined();
     expect((await tech.get(made.json.url)).status).toBe(404);
+  });
+
+  it('attaches by the client id the wizard made for the answer; the list names the answer by both ids', async () => {
+    const made = await upload(tech, ownCall, await photo(300, 200), 'rod.jpg', 'image/jpeg', { answerId: answerClientId });
+    expect(made.status).toBe(201);
+    expect(await db('attachments').where({ id: made.json.id }).first('answer_id')).toEqual({ answer_id: answerId });
+    const list = await tech.get(`/api/calls/${ownCall}/attachments`);
+    expect(list.json.photos.find((p: { id: string }) => p.id === made.json.id)).toMatchObject({
+      answerId,
+      answerClientId,
+      findingId: null,
+    });
+    expect((await tech.call('DELETE', made.json.url)).status).toBe(200);
   });
 
   it('keeps the photos of a closed call: removing one answers 409', async () => {

@@ -4,6 +4,8 @@ import { spawnSync } from 'node:child_process';
 import { mkdtempSync, writeFileSync } from 'node:fs';
 import { tmpdir } from 'node:os';
 import path from 'node:path';
+import sharp from 'sharp';
+import { processImage, thumbnailForPdf } from '@/lib/images';
 import { renderReportPdf } from '@/lib/pdf/render';
 import { callReportSchema } from '@/lib/validations/api';
 import { reportFixture } from '../../support/report-fixture';
@@ -26,8 +28,17 @@ function read(pdf: Buffer, name: string) {
   const info = spawnSync('pdfinfo', [file], { encoding: 'utf8' }).stdout;
   const fonts = spawnSync('pdffonts', [file], { encoding: 'utf8' }).stdout;
   const pages = Number(/^Pages:\s+(\d+)/m.exec(info)?.[1] ?? NaN);
+  // pdfimages -list: one line per image drawn on a page, after two header lines.
+  const images = spawnSync('pdfimages', ['-list', file], { encoding: 'utf8' })
+    .stdout.split('\n')
+    .slice(2)
+    .filter((l) => l.trim() !== '')
+    .map((l) => {
+      const [page, , type, width, height, color, , , enc] = l.trim().split(/\s+/);
+      return { page: Number(page), type, width: Number(width), height: Number(height), color, enc };
+    });
   // Line breaks fall where the page width puts them: compare words, not lines.
-  return { text, flat: text.replace(/\s+/g, ' '), pages, fonts };
+  return { text, flat: text.replace(/\s+/g, ' '), pages, fonts, images };
 }
 
 describe('the report as PDF', () => {
@@ -85,5 +96,41 @@ describe('the report as PDF', () => {
     expect(pages).toBeGreaterThan(1);
     expect(text).toContain(`Page ${pages} of ${pages}`);
     expect(text).toContain('Repeat reading 60');
+  });
+
+  describe('with photos', () => {
+    // A photo as the upload stores it (lib/images.ts re-draws it as WebP, 320 px thumbnail), read
+    // back as the PDF needs it: the same path the report takes, minus the object store.
+    async function storedPhoto(width: number, height: number, colour: string) {
+      const upload = await sharp({ create: { width, height, channels: 3, background: colour } })
+        .jpeg()
+        .toBuffer();
+      const stored = await processImage(upload);
+      return thumbnailForPdf(stored.thumb.data);
+    }
+
+    it.skipIf(!poppler)('draws each photo’s thumbnail in both versions, under a Photos heading', async () => {
+      const photos = [
+        { id: 'p1', data: await storedPhoto(1600, 1200, '#8a5a2b'), format: 'jpg' as const },
+        { id: 'p2', data: await storedPhoto(900, 1600, '#2b5a8a'), format: 'jpg' as const },
+      ];
+      for (const version of ['customer', 'office'] as const) {
+        const { text, images } = read(await renderReportPdf({ report, version, photos }), `photos-${version}.pdf`);
+        expect(text).toMatch(/^\s*Photos\s*$/m);
+        // The thumbnails as drawn: JPEG (DCT), the 320 px long side of lib/images.ts's thumbnail, both shapes kept.
+        expect(images).toHaveLength(2);
+        expect(images.map((i) => i.enc)).toEqual(['jpeg', 'jpeg']);
+        expect(images.map((i) => [i.width, i.height])).toEqual([
+          [320, 240],
+          [180, 320],
+        ]);
+      }
+    });
+
+    it.skipIf(!poppler)('a report without photos has no Photos section and no images', async () => {
+      const { text, images } = read(await renderReportPdf({ report, version: 'customer' }), 'no-photos.pdf');
+      expect(images).toHaveLength(0);
+      expect(text).not.toMatch(/^\s*Photos\s*$/m);
+    });
   });
 });

@@ -1,6 +1,7 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { assignCallAction, closeCallAction, reopenCallAction, signOffAction, startDiagnosisAction } from '@/app/(app)/calls/actions';
+import { resendMailAction } from '@/app/(app)/calls/[id]/report/actions';
 import { CallCaution } from '@/components/calls/call-caution';
 import { CallRecord } from '@/components/calls/call-record';
 import {
@@ -14,12 +15,20 @@ import { CallStatusBadge } from '@/components/calls/call-status';
 import { DIAGNOSIS_LABELS } from '@/components/calls/format';
 import { ReadingsTable } from '@/components/calls/readings-table';
 import { UnitCard } from '@/components/calls/unit-card';
+import { CallEmailStatus } from '@/components/mail/call-email-status';
+import { CallPhotos } from '@/components/photos/call-photos';
 import { BackLink } from '@/components/ui/back-link';
+import { readingText } from '@/components/wizard/path-so-far';
 import { Time } from '@/components/ui/time-zone';
 import { may } from '@/lib/policy';
 import { ROLE_LABELS, type Role } from '@/lib/roles';
-import { getCallPage, listCallAssignees } from '@/lib/server/calls';
+import { listCallAttachments } from '@/lib/server/attachments';
+import { getCallPage, getCallReport, listCallAssignees } from '@/lib/server/calls';
 import { orNotFound, pageScope } from '@/lib/server/operation';
+import { previewReportEmail } from '@/lib/server/outbox';
+import { callReportSchema } from '@/lib/validations/api';
+import { attachmentListSchema } from '@/lib/validations/attachments';
+import { reportEmailPreviewSchema } from '@/lib/validations/mail';
 
 export const metadata: Metadata = { title: 'Service call' };
 export const dynamic = 'force-dynamic';
@@ -37,6 +46,31 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
   const canAssign = may(user.role, 'calls.assign') && !closed;
   const assignees = canAssign ? await listCallAssignees({ scope }) : [];
   const inProgress = diagnoses.find((d) => d.status === 'in_progress');
+  const [photos, report, emailPreview] = await Promise.all([
+    listCallAttachments({ scope, callId: id }).then((l) => attachmentListSchema.parse(l)),
+    getCallReport({ scope, id }).then((r) => callReportSchema.parse(r)),
+    may(user.role, 'reports.emailPreview')
+      ? pageScope('reports.emailPreview').then(async ({ scope: s }) =>
+          reportEmailPreviewSchema.parse(await previewReportEmail({ scope: s, id })),
+        )
+      : null,
+  ]);
+  // What each photo is of, in words: the step and its answer, or the finding.
+  const answerLabels = report.diagnoses.flatMap((d) =>
+    d.steps.map((st) => {
+      const answer =
+        st.kind === 'measure'
+          ? readingText({
+              quantity: st.quantity ?? undefined,
+              text: st.text ?? undefined,
+              unit: st.unit ?? undefined,
+              overRange: st.overRange ? true : undefined,
+            })
+          : (st.choiceLabel ?? (st.confirmed ? 'done' : null));
+      return { id: st.id, label: answer ? `${st.stepTitle}: ${answer}` : st.stepTitle };
+    }),
+  );
+  const findingLabels = diagnoses.filter((d) => d.finding).map((d) => ({ id: d.id, label: d.finding!.title }));
   const startReason = closed
     ? 'This call is closed: open a new call to diagnose again.'
     : !defaultTree
@@ -235,6 +269,8 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
         )}
       </section>
 
+      <CallPhotos callId={call.id} initial={photos} answers={answerLabels} findings={findingLabels} />
+
       <section aria-labelledby="finish-heading" className="card space-y-3">
         <h2 id="finish-heading" className="text-xl font-bold">
           {closed ? 'Report' : 'Finish the call'}
@@ -253,6 +289,8 @@ export default async function CallPage({ params }: { params: Promise<{ id: strin
           {closed && canReopen && <ReopenCallControls callId={call.id} reopenCall={reopenCallAction} />}
         </div>
       </section>
+
+      {emailPreview && <CallEmailStatus callId={call.id} initial={emailPreview} resend={resendMailAction} />}
 
       {events.length > 0 && (
         <section aria-labelledby="record-heading" className="card space-y-3">
