@@ -51,6 +51,8 @@ const OBSERVATION_LABELS: Partial<Record<ObservationKind, string>> = {
   'burner-surface': 'The burner surfaces (power off)',
   'carry-over': 'The carry-over path between burners (power off)',
   orifices: 'The burner orifices (power off)',
+  trial: 'What the trial for ignition showed, since the call began',
+  'flame-test-method': 'Which flame-signal test the control provides (its label)',
 };
 
 const RESULT_LABELS: Partial<Record<string, string>> = {
@@ -66,6 +68,12 @@ const RESULT_LABELS: Partial<Record<string, string>> = {
   'rod-bent': 'Rod bent',
   'ceramic-cracked': 'Ceramic cracked',
   'out-of-flame': 'Out of the flame',
+  'no-spark': 'No spark seen',
+  'spark-no-flame': 'A spark, but no flame',
+  'lights-drops': 'Lights, then goes out',
+  'stays-lit': 'Lights and stays lit',
+  'dc-test-terminals': 'DC test terminals',
+  'status-light': 'A status light',
 };
 
 export const observationLabel = (kind: string) => OBSERVATION_LABELS[kind as ObservationKind] ?? readable(kind);

@@ -4,9 +4,12 @@
 // (lib/trees/schema.ts), every change handed to the editor at once so validation stays live.
 // Bands are edited by their boundaries, so they stay contiguous: band i ends where band i+1 starts.
 import { zodResolver } from '@hookform/resolvers/zod';
+import type { z } from 'zod';
 import clsx from 'clsx';
-import { useEffect, useId, type ReactNode } from 'react';
-import { get, useForm, useWatch, type FieldValues, type Resolver, type UseFormReturn } from 'react-hook-form';
+import { useEffect } from 'react';
+import { useForm, useWatch, type FieldValues, type Resolver } from 'react-hook-form';
+import { ObserveFields, ProbeFields, TimelineField } from '@/components/trees/editor/bench-fields';
+import { errorOf, Labeled, type Form } from '@/components/trees/editor/fields';
 import { moveBoundary, removeBand, splitBand, splitPoint } from '@/components/trees/editor/graph-edit';
 import {
   AIDS,
@@ -14,15 +17,16 @@ import {
   QUANTITIES,
   SIGNAL_WORDS,
   stepIdSchema,
+  choiceSchema,
   stepSchema,
   UNIT_FACTS,
   type Band,
+  type Caution,
+  type MeasureStep,
   type Step,
   type StepKind,
   type UnitFact,
 } from '@/lib/trees/schema';
-
-type Form = UseFormReturn<FieldValues>;
 
 export interface StepPanelProps {
   step: Step;
@@ -37,6 +41,8 @@ export interface StepPanelProps {
   onMakeStart: () => void;
   onClose: () => void;
 }
+
+type Choice = z.infer<typeof choiceSchema>;
 
 const KINDS: { kind: StepKind; label: string }[] = [
   { kind: 'measure', label: 'Measure (a meter reading)' },
@@ -54,38 +60,6 @@ const QUANTITY_LABEL: Record<(typeof QUANTITIES)[number], string> = {
   length: 'Length',
   pressure: 'Gas pressure',
 };
-
-function errorOf(form: Form, path: string): string | undefined {
-  const e = get(form.formState.errors, path) as { message?: string } | undefined;
-  return e?.message;
-}
-
-function Labeled({
-  label,
-  error,
-  children,
-  className,
-}: {
-  label: string;
-  error?: string;
-  children: (id: string) => ReactNode;
-  className?: string;
-}) {
-  const id = useId();
-  return (
-    <div className={className}>
-      <label htmlFor={id} className="label">
-        {label}
-      </label>
-      {children(id)}
-      {error && (
-        <p className="field-error" role="alert">
-          <span aria-hidden>⚠</span> {error}
-        </p>
-      )}
-    </div>
-  );
-}
 
 function TargetSelect({
   form,
@@ -163,7 +137,7 @@ function TextList({
 }
 
 function Cautions({ form, disabled }: { form: Form; disabled?: boolean }) {
-  const cautions = (useWatch({ control: form.control, name: 'cautions' }) as { signal: string; text: string }[] | undefined) ?? [];
+  const cautions = (useWatch({ control: form.control, name: 'cautions' }) as Caution[] | undefined) ?? [];
   const set = (next: typeof cautions) => form.setValue('cautions', next, { shouldDirty: true, shouldValidate: true });
   return (
     <fieldset className="space-y-3">
@@ -344,7 +318,7 @@ function Choices({
   disabled?: boolean;
   fact?: UnitFact;
 }) {
-  const items = (useWatch({ control: form.control, name }) as { value: string; label: string; outcome: string }[] | undefined) ?? [];
+  const items = (useWatch({ control: form.control, name }) as Choice[] | undefined) ?? [];
   const set = (next: typeof items) => form.setValue(name, next, { shouldDirty: true, shouldValidate: true });
   const word = name === 'choices' ? 'Choice' : 'Case';
   return (
@@ -427,7 +401,7 @@ export function StepPanel({
   const kind = step.kind;
   const quantity = (useWatch({ control: form.control, name: 'quantity' }) as (typeof QUANTITIES)[number] | undefined) ?? 'vac';
   const fact = useWatch({ control: form.control, name: 'fact' }) as UnitFact | undefined;
-  const reference = useWatch({ control: form.control, name: 'reference' }) as { step: string; fallback: number } | undefined;
+  const reference = useWatch({ control: form.control, name: 'reference' }) as MeasureStep['reference'];
   const measureOthers = others;
   const idError = errorOf(form, 'id');
 
@@ -509,6 +483,7 @@ export function StepPanel({
               {(id) => <input id={id} className="input" disabled={readOnly} {...register('points.1')} />}
             </Labeled>
           </div>
+          <ProbeFields form={form} quantity={quantity} disabled={readOnly} />
           <Bands form={form} others={others} disabled={readOnly} unit={CANONICAL_UNITS[quantity] ?? ''} />
           <fieldset className="space-y-2">
             <legend className="label">Relative bands</legend>
@@ -576,7 +551,16 @@ export function StepPanel({
         </>
       )}
 
-      {kind === 'inspect' && <Choices form={form} name="choices" others={others} disabled={readOnly} />}
+      {kind === 'inspect' && (
+        <>
+          <Choices form={form} name="choices" others={others} disabled={readOnly} />
+          <ObserveFields form={form} disabled={readOnly} />
+        </>
+      )}
+
+      {(kind === 'measure' || kind === 'inspect' || kind === 'action') && (
+        <TimelineField form={form} stepId={step.id} disabled={readOnly} />
+      )}
 
       {kind === 'fact' && (
         <>
