@@ -33,7 +33,16 @@ type SaveState =
 
 const AUTOSAVE_MS = 1200;
 
-export function DraftWorkspace({ version, actions }: { version: AuthoringVersionOut; actions: DraftActions }) {
+export function DraftWorkspace({
+  version,
+  actions,
+  initialStepId,
+}: {
+  version: AuthoringVersionOut;
+  actions: DraftActions;
+  /** A step to open at first (?step= on the page's address). */
+  initialStepId?: string;
+}) {
   const router = useRouter();
   const [revision, setRevision] = useState(version.revision);
   const [savedGraph, setSavedGraph] = useState<TreeGraph>(() => editableGraph(version.graph));
@@ -178,6 +187,7 @@ export function DraftWorkspace({ version, actions }: { version: AuthoringVersion
         revision={revision}
         savedGraph={savedGraph}
         initialGraph={start.graph}
+        initialStepId={start.key === 0 ? initialStepId : undefined}
         onGraphChange={onGraphChange}
         toolbar={
           <>
@@ -191,6 +201,13 @@ export function DraftWorkspace({ version, actions }: { version: AuthoringVersion
             )}
             <Link className="btn-secondary" href={`/trees/versions/${version.id}/dry-run`}>
               Dry run
+            </Link>
+            <Link
+              className="btn-secondary"
+              href={`/trees/versions/${version.id}/isolation`}
+              title="Every fault of the bench's library through this draft as last saved"
+            >
+              Isolation check
             </Link>
             <button
               type="button"

@@ -15,11 +15,22 @@ const TreeEditor = dynamic(() => import('@/components/trees/editor/tree-editor')
 export function VersionView({
   version,
   marks,
+  initialStepId,
 }: {
   version: Pick<AuthoringVersionOut, 'id' | 'revision' | 'graph'>;
   marks?: [string, StepMark][];
+  initialStepId?: string;
 }) {
   const graph = useMemo(() => editableGraph(version.graph), [version.graph]);
   const markMap = useMemo(() => (marks ? new Map(marks) : undefined), [marks]);
-  return <TreeEditor versionId={version.id} revision={version.revision} savedGraph={graph} readOnly marks={markMap} />;
+  return (
+    <TreeEditor
+      versionId={version.id}
+      revision={version.revision}
+      savedGraph={graph}
+      readOnly
+      marks={markMap}
+      initialStepId={initialStepId}
+    />
+  );
 }

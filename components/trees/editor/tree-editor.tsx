@@ -54,9 +54,21 @@ export interface TreeEditorProps {
   /** The page's buttons (save state, submit, dry run), shown in the toolbar. */
   toolbar?: ReactNode;
   marks?: Map<string, StepMark>;
+  /** A step to open in the panel and centre on at first (a link from the isolation check or a problem elsewhere). */
+  initialStepId?: string;
 }
 
-export function TreeEditor({ versionId, revision, savedGraph, initialGraph, readOnly, onGraphChange, toolbar, marks }: TreeEditorProps) {
+export function TreeEditor({
+  versionId,
+  revision,
+  savedGraph,
+  initialGraph,
+  readOnly,
+  onGraphChange,
+  toolbar,
+  marks,
+  initialStepId,
+}: TreeEditorProps) {
   // Unsaved changes kept on this device for this revision come back at once. The editor renders on
   // the client only (the pages load it without server rendering), so reading storage here is safe.
   const [start] = useState(() => {
@@ -68,8 +80,9 @@ export function TreeEditor({ versionId, revision, savedGraph, initialGraph, read
   });
   const [graph, setGraph] = useState<TreeGraph>(start.graph);
   const [restored, setRestored] = useState(start.restored);
-  const [selectedId, setSelectedId] = useState<string | null>(null);
-  const [focus, setFocus] = useState<{ id: string; n: number } | null>(null);
+  const opened = initialStepId && start.graph.steps.some((s) => s.id === initialStepId) ? initialStepId : null;
+  const [selectedId, setSelectedId] = useState<string | null>(opened);
+  const [focus, setFocus] = useState<{ id: string; n: number } | null>(opened ? { id: opened, n: 1 } : null);
   const [showProblems, setShowProblems] = useState(true);
 
   const problems = useMemo(() => editorProblems(graph), [graph]);

@@ -119,6 +119,16 @@ describe('TreeEditor', { timeout: 60_000 }, () => {
     ).toBeInTheDocument();
   });
 
+  it('opens the step named by a link (the isolation check) at first, and ignores an id it does not have', () => {
+    const { unmount } = render(
+      <TreeEditor versionId="v1" revision={1} savedGraph={DEFAULT_TREE_GRAPH} readOnly initialStepId="flame-signal" />,
+    );
+    expect(screen.getByRole('form', { name: 'Step flame-signal' })).toBeInTheDocument();
+    unmount();
+    render(<TreeEditor versionId="v1" revision={1} savedGraph={DEFAULT_TREE_GRAPH} readOnly initialStepId="no-such-step" />);
+    expect(screen.getByText('No step selected.')).toBeInTheDocument();
+  });
+
   it('read-only shows the steps without editing controls', () => {
     render(<TreeEditor versionId="v1" revision={1} savedGraph={DEFAULT_TREE_GRAPH} readOnly />);
     expect(screen.queryByRole('button', { name: '+ Inspect' })).toBeNull();

@@ -11,8 +11,15 @@ import { approveVersionAction, publishVersionAction, returnVersionAction } from 
 
 export const metadata: Metadata = { title: 'Tree version' };
 
-export default async function VersionPage({ params }: { params: Promise<{ versionId: string }> }) {
+export default async function VersionPage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ versionId: string }>;
+  searchParams: Promise<{ step?: string | string[] }>;
+}) {
   const { versionId } = await params;
+  const { step } = await searchParams;
   const { scope } = await pageScope('treeVersions.authoring');
   const version = authoringVersionSchema.parse(await orNotFound(getVersionForAuthoring({ scope, id: versionId })));
   const stepIds = version.graph.steps.map((s) => String(s.id ?? ''));
@@ -45,6 +52,9 @@ export default async function VersionPage({ params }: { params: Promise<{ versio
           <Link className="btn-secondary" href={`/trees/versions/${version.id}/dry-run`}>
             Dry run
           </Link>
+          <Link className="btn-secondary" href={`/trees/versions/${version.id}/isolation`}>
+            Isolation check
+          </Link>
           <a className="btn-secondary" href={`/api/tree-versions/${version.id}/export`} download>
             Export
           </a>
@@ -57,7 +67,7 @@ export default async function VersionPage({ params }: { params: Promise<{ versio
         problems={version.problems.length}
         actions={{ approve: approveVersionAction, returnVersion: returnVersionAction, publish: publishVersionAction }}
       />
-      <VersionView version={version} />
+      <VersionView version={version} initialStepId={typeof step === 'string' ? step : undefined} />
     </div>
   );
 }

@@ -10,11 +10,19 @@ import { saveDraftAction, submitDraftAction } from '../../../actions';
 
 export const metadata: Metadata = { title: 'Edit a draft' };
 
-export default async function EditDraftPage({ params }: { params: Promise<{ versionId: string }> }) {
+export default async function EditDraftPage({
+  params,
+  searchParams,
+}: {
+  params: Promise<{ versionId: string }>;
+  searchParams: Promise<{ step?: string | string[] }>;
+}) {
   const { versionId } = await params;
+  const { step } = await searchParams;
   const { scope } = await pageScope('treeVersions.save');
   const version = authoringVersionSchema.parse(await orNotFound(getVersionForAuthoring({ scope, id: versionId })));
-  if (version.status !== 'draft') redirect(`/trees/versions/${version.id}`);
+  if (version.status !== 'draft')
+    redirect(`/trees/versions/${version.id}${typeof step === 'string' ? `?step=${encodeURIComponent(step)}` : ''}`);
   return (
     <div className="space-y-4">
       <div>
@@ -27,7 +35,11 @@ export default async function EditDraftPage({ params }: { params: Promise<{ vers
         <p className="text-muted">Saved automatically as you edit. Submit it for review when no problems are left.</p>
       </div>
       {version.reviewComments.length > 0 && <ReviewComments version={version} />}
-      <DraftWorkspace version={version} actions={{ saveDraft: saveDraftAction, submitDraft: submitDraftAction }} />
+      <DraftWorkspace
+        version={version}
+        actions={{ saveDraft: saveDraftAction, submitDraft: submitDraftAction }}
+        initialStepId={typeof step === 'string' ? step : undefined}
+      />
     </div>
   );
 }
