@@ -310,8 +310,9 @@ function makeSetup(steps: (id: string) => Step | undefined) {
     },
     guards: {
       isStep: ({ event }, params: { stepId: string }) => 'stepId' in event && event.stepId === params.stepId,
-      bandRoute: ({ context, event }, params: { stepId: string; index: number; outcome: string; route: string }) => {
+      bandRoute: ({ context, event }, params: { stepId: string; index: number; outcome: string; route: string; tookReading?: string }) => {
         if (event.type !== 'answer.measure' || event.stepId !== params.stepId) return false;
+        if (params.tookReading !== undefined && !(params.tookReading in context.readings)) return false;
         const step = steps(params.stepId);
         if (step?.kind !== 'measure' || typeof event.value !== 'number') return false;
         return (
@@ -478,8 +479,16 @@ export function createDiagnosisMachine(treeVersion: TreeVersion) {
   }
 
   for (const finding of findings) {
-    retakes.forEach((r) => {
+    retakes.forEach((r, i) => {
       const ids = retakeIds(r.measure.id, finding.id);
+      // After this reading: the next retake the walk took a reading for (its set-up first), else the checks.
+      const after = [
+        ...retakes.slice(i + 1).map((n) => {
+          const next = retakeIds(n.measure.id, finding.id);
+          return { to: n.reconnect ? next.reconnect : next.recheck, tookReading: n.measure.id as string | undefined };
+        }),
+        { to: `${VERIFY}${finding.id}`, tookReading: undefined },
+      ];
       if (r.reconnect) {
         walk[ids.reconnect] = {
           tags: ['action', 'after-repair'],
@@ -495,14 +504,19 @@ export function createDiagnosisMachine(treeVersion: TreeVersion) {
           'answer.measure': recheck.bands.flatMap((band, index) =>
             band.outcome === undefined
               ? []
-              : into(band.outcome).map((route) => ({
-                  guard: { type: 'bandRoute' as const, params: { stepId: ids.recheck, index, outcome: band.outcome!, route } },
-                  target: stateFor(route, band.outcome!),
-                  actions: {
-                    type: 'recordAnswer' as const,
-                    params: { stepId: ids.recheck, kind: 'measure' as const, outcome: band.outcome!, bandIndex: index },
-                  },
-                })),
+              : after.flatMap(({ to, tookReading }) =>
+                  into(to).map((route) => ({
+                    guard: {
+                      type: 'bandRoute' as const,
+                      params: { stepId: ids.recheck, index, outcome: to, route, ...(tookReading ? { tookReading } : {}) },
+                    },
+                    target: stateFor(route, to),
+                    actions: {
+                      type: 'recordAnswer' as const,
+                      params: { stepId: ids.recheck, kind: 'measure' as const, outcome: to, bandIndex: index },
+                    },
+                  })),
+                ),
           ),
         },
       };

@@ -5,11 +5,12 @@
 // alone (authoring shows it the update).
 import { isDeepStrictEqual } from 'node:util';
 import { NO_HEAT_DSI_R1 } from '@/lib/trees/builtin/no-heat-dsi-r1';
+import { NO_HEAT_DSI_R2 } from '@/lib/trees/builtin/no-heat-dsi-r2';
 import { DEFAULT_TREE, type DefaultTree } from '@/lib/trees/default-tree';
 import { treeGraphSchema, type TreeGraph } from '@/lib/trees/schema';
 
 /** Every revision of the built-in "no heat" tree, oldest first; the last is the one shipped. */
-export const BUILTIN_REVISIONS: readonly DefaultTree[] = [NO_HEAT_DSI_R1, DEFAULT_TREE];
+export const BUILTIN_REVISIONS: readonly DefaultTree[] = [NO_HEAT_DSI_R1, NO_HEAT_DSI_R2, DEFAULT_TREE];
 
 const parsed = new Map<number, TreeGraph>();
 function graphOf(revision: DefaultTree): TreeGraph {

@@ -1,4 +1,4 @@
-// The built-in fault tree for "no heat" on a direct spark ignition furnace, revision 2. It starts
+// The built-in fault tree for "no heat" on a direct spark ignition furnace, revision 3. It starts
 // from what the technician sees during one trial for ignition and goes straight to what that
 // implicates: no spark → power, 24 V, call, safety circuit, the induced-draft sequence (inducer,
 // pressure switch, hose, port, vent) and the spark lead; spark without flame → gap and rod, valve
@@ -11,8 +11,16 @@
 // the unit record holds (control supply, fuel, ignition, draft) are branches it answers.
 //
 // Trade facts here are common practice, no source (TRADE.md), unless a comment names one. Every band
-// is a default a lead can change; the rating plate and the manufacturer's data rule. Revision 1 is
-// kept in builtin/no-heat-dsi-r1.ts for the upgrade of companies that never edited it.
+// is a default a lead can change; the rating plate and the manufacturer's data rule. Revisions 1
+// and 2 are kept in builtin/ for the upgrade of companies that never edited them.
+//
+// Revision 3 is revision 2 made answerable by the bench (lib/bench): every measure step says where
+// the meter goes (`probe`) and, where the reading depends on the sequence, when (`at`); every
+// inspect step says what it observes (`observe`); the steps read during the trial show the ignition
+// sequence (`timeline`); each finding carries the tags of the library fault it isolates; and a
+// single-rod unit reads its flame signal numerically at the control's own test terminals, with the
+// bands of a control profile (lib/trees/control-profiles.ts), or by its status light.
+import { DC_TEST_TERMINALS, dcFlameTestBands } from '@/lib/trees/control-profiles';
 import { treeGraphSchema, type Caution, type EnergyNeed, type TreeGraph, type TreeGraphInput } from '@/lib/trees/schema';
 
 export interface DefaultTree {
@@ -104,10 +112,13 @@ export const DEFAULT_TREE: DefaultTree = {
   title: 'No heat — direct spark ignition',
   symptom: 'No heat',
   equipmentKind: 'dsi-furnace',
-  revision: 2,
+  revision: 3,
   graph: {
     start: 'line-voltage',
-    afterRepair: [{ measure: 'flame-signal', reconnect: 'connect-microammeter' }],
+    afterRepair: [
+      { measure: 'flame-signal', reconnect: 'connect-microammeter' },
+      { measure: 'control-flame-voltage', reconnect: 'connect-flame-test-meter' },
+    ],
     steps: [
       // ── Line power, then one trial watched ───────────────────────────────────
       {
@@ -119,6 +130,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [LINE_VOLTAGE],
         why: 'Nothing in the unit works without line power. Starting here rules out the simplest cause before you open the burner compartment.',
         energy: LIVE,
+        probe: { a: 'line-hot', b: 'line-neutral' },
         quantity: 'vac',
         points: ['unit supply hot (L1), load side of the service switch', 'unit supply neutral'],
         bands: [
@@ -137,6 +149,12 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [SPARK, GAS],
         why: 'What happens during one trial tells you which part of the sequence failed, so the walk goes straight there instead of checking everything in order.',
         energy: FIRING,
+        observe: {
+          what: 'trial',
+          at: 'after-proving',
+          choices: { 'no-spark': 'no-spark', 'spark-no-flame': 'spark-no-flame', 'lights-drops': 'lights-drops', 'stays-lit': 'stays-lit' },
+        },
+        timeline: true,
         note: { label: "Status light (what it shows, against the control's own legend), if the control has one", required: false },
         choices: [
           { value: 'no-spark', label: 'No spark (whether or not the inducer starts)', outcome: 'control-supply' },
@@ -168,6 +186,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [LINE_VOLTAGE],
         why: 'Line voltage at the unit does not prove it reaches the control: the door switch, a connector or a wire between them may be open.',
         energy: LIVE,
+        probe: { a: 'line-hot', b: 'line-neutral' },
         quantity: 'vac',
         points: ['control line input (L1)', 'control neutral'],
         bands: [
@@ -184,6 +203,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [LINE_VOLTAGE],
         why: 'The whole control circuit — thermostat, safety switches, control and gas valve — runs on this 24 V.',
         energy: LIVE,
+        probe: { a: 'xfmr-hot', b: 'xfmr-common' },
         quantity: 'vac',
         points: ['transformer secondary, R side', 'transformer secondary, common (C)'],
         bands: [
@@ -202,6 +222,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [LINE_VOLTAGE],
         why: 'No output with line voltage on the primary condemns the transformer; no line voltage on the primary points upstream.',
         energy: LIVE,
+        probe: { a: 'line-hot', b: 'line-neutral' },
         quantity: 'vac',
         points: ['transformer primary, line lead', 'transformer primary, neutral lead'],
         bands: [
@@ -218,6 +239,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [LINE_AT_CONTROL],
         why: 'The fuse sits between the transformer and the thermostat circuit; a short anywhere downstream blows it.',
         energy: LIVE,
+        probe: { a: 'fuse-out', b: 'xfmr-common' },
         quantity: 'vac',
         points: ['control fuse, load side (R past the fuse)', 'transformer common (C)'],
         bands: [
@@ -234,6 +256,7 @@ export const DEFAULT_TREE: DefaultTree = {
           'Set the thermostat to heat, a few degrees above room temperature. Does it show a call for heat (display on, heat indicator, a click)?',
         why: 'Without a call (R closed to W) the control has no reason to start.',
         energy: ANY,
+        observe: { what: 'thermostat', at: 'call', choices: { calling: 'calling', 'not-calling': 'not-calling' } },
         choices: [
           { value: 'calling', label: 'It calls for heat', outcome: 'w-voltage' },
           { value: 'not-calling', label: 'No call: blank display, wrong mode, or no response', outcome: 'f-no-call-for-heat' },
@@ -247,6 +270,8 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [LINE_AT_CONTROL],
         why: 'The thermostat closing R to W puts 24 V on W. Measuring at the furnace proves the thermostat and its wire together.',
         energy: LIVE,
+        probe: { a: 'stat-w', b: 'xfmr-common' },
+        at: 'call',
         quantity: 'vac',
         points: ['furnace terminal W', 'furnace terminal C'],
         bands: [
@@ -263,6 +288,8 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [LINE_AT_CONTROL],
         why: 'The call passes through the high limit and the rollout switch in series before it reaches the control. 24 V here proves the whole safety circuit closed.',
         energy: LIVE,
+        probe: { a: 'rollout-out', b: 'control-common' },
+        at: 'call',
         quantity: 'vac',
         points: ['control thermostat input (TH)', 'control common (TR)'],
         bands: [
@@ -280,6 +307,8 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [NO_BYPASS],
         why: 'Measuring across each switch in the series string finds the open one without removing wires.',
         energy: LIVE,
+        probe: { a: 'stat-w', b: 'limit-out' },
+        at: 'call',
         quantity: 'vac',
         points: ['high limit, supply-side terminal', 'high limit, load-side terminal'],
         bands: [
@@ -297,6 +326,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [ROLLOUT],
         why: 'The high limit is closed, so the open point is the rollout switch or the wiring. A tripped rollout is a warning of a combustion hazard, not a part failure.',
         energy: POWER_OFF,
+        probe: { a: 'limit-out', b: 'rollout-out' },
         handles: ['electric'],
         quantity: 'ohm',
         points: ['rollout switch, terminal 1 (wire removed)', 'rollout switch, terminal 2'],
@@ -328,6 +358,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [HOT_PARTS],
         why: 'The control starts the inducer first and waits for the pressure switch to close before it sparks: no inducer, no spark.',
         energy: LIVE,
+        observe: { what: 'inducer', at: 'call', choices: { runs: 'runs', 'not-running': 'not-running' } },
         choices: [
           { value: 'runs', label: 'The inducer runs', outcome: 'pressure-switch-across' },
           { value: 'not-running', label: 'The inducer does not run', outcome: 'inducer-voltage' },
@@ -341,6 +372,8 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [LINE_AT_CONTROL, LINE_VOLTAGE],
         why: 'Voltage there with a motor that does not turn condemns the motor; no voltage points to the control.',
         energy: LIVE,
+        probe: { a: 'inducer-hot', b: 'line-neutral' },
+        at: 'call',
         quantity: 'vac',
         points: ['control inducer output (line side)', 'control inducer output (neutral side)'],
         bands: [
@@ -358,6 +391,8 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [NO_BYPASS],
         why: 'The pressure switch proves the inducer is moving flue gas out; until it closes, the control will not spark.',
         energy: LIVE,
+        probe: { a: 'ps-in', b: 'ps-out' },
+        at: 'call',
         quantity: 'vac',
         points: ['pressure switch, terminal 1', 'pressure switch, terminal 2'],
         bands: [
@@ -375,6 +410,8 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [HOT_PARTS],
         why: 'The switch sees draft only through its hose: a kinked, cracked or water-logged hose or a blocked port keeps it open with a good inducer.',
         energy: POWER_OFF,
+        observe: { what: 'pressure-hose', choices: { faulty: 'hose-faulty' } },
+        observeMore: [{ what: 'pressure-port', choices: { blocked: 'port-blocked', clear: 'clear' } }],
         choices: [
           { value: 'hose-faulty', label: 'Hose cracked, kinked, off or holding water', outcome: 'f-pressure-hose' },
           { value: 'port-blocked', label: 'Sensing port blocked', outcome: 'f-pressure-port-blocked' },
@@ -390,6 +427,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [VENT],
         why: 'A restricted vent keeps the inducer from pulling enough draft, and the switch stays open as it should.',
         energy: POWER_OFF,
+        observe: { what: 'vent', choices: { blocked: 'blocked', clear: 'clear' } },
         choices: [
           { value: 'blocked', label: 'Blocked, disconnected, crushed or holding water', outcome: 'f-vent-blocked' },
           { value: 'clear', label: 'Vent clear and sound', outcome: 'f-pressure-switch-failed' },
@@ -403,6 +441,8 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [SPARK],
         why: 'A spark heard but not seen is escaping inside the lead; silence with the call at the control and draft proven points to the control.',
         energy: LIVE,
+        observe: { what: 'spark', at: 'proving', choices: { 'heard-not-seen': 'ticking', none: 'silent' } },
+        timeline: true,
         choices: [
           { value: 'ticking', label: 'Ticking heard, no spark at the gap', outcome: 'spark-lead-inspect' },
           { value: 'silent', label: 'No ticking and no spark', outcome: 'f-control-not-sparking' },
@@ -417,6 +457,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [HOT_PARTS],
         why: 'A spark heard but not seen at the gap is jumping a break inside the lead or inside the control.',
         energy: POWER_OFF,
+        observe: { what: 'spark-lead', choices: { broken: 'lead-broken', intact: 'lead-intact' } },
         handles: ['electric'],
         choices: [
           { value: 'lead-broken', label: 'Conductor broken, burnt or terminal loose', outcome: 'f-broken-spark-lead' },
@@ -432,6 +473,8 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [SPARK],
         why: 'A spark off the gap is escaping to the frame; a spark at the gap that lights nothing points to its position or to the gas.',
         energy: LIVE,
+        observe: { what: 'spark', at: 'proving', choices: { 'at-gap': 'at-gap', 'to-frame': 'arcing-elsewhere' } },
+        timeline: true,
         choices: [
           { value: 'at-gap', label: 'Spark jumps the gap at the burner', outcome: 'spark-gap' },
           {
@@ -450,6 +493,10 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [HOT_PARTS],
         why: 'The spark takes the easiest path to ground; a crack or a bent rod gives it one before the gap.',
         energy: POWER_OFF,
+        observe: {
+          what: 'arcing',
+          choices: { 'lead-insulation': 'lead-insulation-cracked', 'rod-ceramic': 'rod-ceramic-cracked', 'rod-bent': 'rod-bent' },
+        },
         handles: ['electric'],
         choices: [
           { value: 'lead-insulation-cracked', label: 'Lead insulation or boot cracked or tracked', outcome: 'f-cracked-lead-insulation' },
@@ -466,6 +513,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [HOT_PARTS],
         why: 'A spark at the gap can still fail to light the gas if the gap is wrong: too wide and it weakens or goes elsewhere, too close and it is short and weak.',
         energy: POWER_OFF,
+        probe: { gauge: 'spark-gap' },
         handles: ['electric'],
         quantity: 'length',
         points: ['spark rod tip', 'ground rod or burner'],
@@ -485,6 +533,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [HOT_PARTS],
         why: 'The spark must be in the gas stream to light it.',
         energy: POWER_OFF,
+        observe: { what: 'spark-rod', choices: { good: 'good', bent: 'bent', 'ceramic-cracked': 'ceramic-cracked' } },
         handles: ['electric'],
         choices: [
           { value: 'good', label: 'Rod in position, ceramic whole', outcome: 'valve-secondary' },
@@ -501,6 +550,9 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [SPARK],
         why: 'The transformer under load is the reference for the valve: a valve that gets much less than the transformer gives is losing voltage in the wiring or a contact.',
         energy: FIRING,
+        probe: { a: 'xfmr-hot', b: 'xfmr-common' },
+        at: 'proving',
+        timeline: true,
         quantity: 'vac',
         points: ['transformer secondary, R side', 'transformer secondary, common (C)'],
         bands: [
@@ -520,6 +572,9 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [SPARK],
         why: 'The spark is proven; now prove the control opens the valve. Judged against the transformer you just read: a drop of more than about 2 V under load points at the wiring or a contact.',
         energy: FIRING,
+        probe: { a: 'valve-hot', b: 'valve-common' },
+        at: 'proving',
+        timeline: true,
         quantity: 'vac',
         points: ['gas valve terminal (from the control valve output)', 'gas valve common terminal'],
         // common practice, no source: more than about 2 V lost between transformer and valve under load is a wiring or contact fault
@@ -539,6 +594,9 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [SPARK, LINE_AT_CONTROL],
         why: 'Comparing the control end with the valve end splits the fault between the control and the wiring in between.',
         energy: FIRING,
+        probe: { a: 'valve-out', b: 'control-common' },
+        at: 'proving',
+        timeline: true,
         quantity: 'vac',
         points: ['control valve output terminal', 'control common (TR)'],
         bands: [
@@ -580,6 +638,9 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [GAS],
         why: 'A supply that is off, or drops when the valve opens, cannot give the burners enough gas; one far above the appliance maximum is a supply regulator fault.',
         energy: FIRING,
+        probe: { gauge: 'inlet-pressure' },
+        at: 'proving',
+        timeline: true,
         quantity: 'pressure',
         points: ['gas valve inlet pressure tap', 'atmosphere (manometer open side)'],
         // common practice, no source: natural-gas inlet about 4.5 to 10.5 inWC (above the ~3.5 inWC manifold setting); 14 inWC is about 1/2 psi
@@ -617,6 +678,9 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [GAS, SPARK],
         why: 'Inlet pressure with no outlet pressure while the valve has its voltage means the valve is not opening.',
         energy: FIRING,
+        probe: { gauge: 'manifold-pressure' },
+        at: 'proving',
+        timeline: true,
         quantity: 'pressure',
         points: ['gas valve outlet (manifold) pressure tap', 'atmosphere (manometer open side)'],
         // common practice, no source: natural-gas manifold about 3.5 inWC (TRADE.md)
@@ -636,6 +700,9 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [GAS],
         why: 'An empty tank, a closed tank valve or a failing regulator starves the burners; the valve cannot regulate from an inlet below its own setting.',
         energy: FIRING,
+        probe: { gauge: 'inlet-pressure' },
+        at: 'proving',
+        timeline: true,
         quantity: 'pressure',
         points: ['gas valve inlet pressure tap', 'atmosphere (manometer open side)'],
         // common practice, no source: LP inlet about 11 to 13 inWC, above the 10–11 inWC LP manifold setting; 14 inWC is about 1/2 psi
@@ -678,6 +745,9 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [GAS, SPARK],
         why: 'The outlet pressure shows whether the valve opens and regulates at the LP setting.',
         energy: FIRING,
+        probe: { gauge: 'manifold-pressure' },
+        at: 'proving',
+        timeline: true,
         quantity: 'pressure',
         points: ['gas valve outlet (manifold) pressure tap', 'atmosphere (manometer open side)'],
         // common practice, no source: LP manifold about 10 to 11 inWC (TRADE.md)
@@ -710,6 +780,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [HOT_PARTS, GAS],
         why: 'Gas at the right pressure that never lights is often gas that cannot get out of the orifices or mix with air.',
         energy: ALL_OFF,
+        observe: { what: 'orifices', choices: { blocked: 'orifices-blocked', clear: 'nothing-found' } },
         handles: ['electric', 'gas'],
         choices: [
           { value: 'orifices-blocked', label: 'Orifices or burner inlets blocked', outcome: 'f-blocked-orifices' },
@@ -725,6 +796,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [LINE_VOLTAGE],
         why: 'The control proves flame through the ground: reversed polarity or a neutral that floats above ground lets it see no flame although the burners are lit.',
         energy: LIVE,
+        probe: { a: 'line-neutral', b: 'line-ground' },
         quantity: 'vac',
         points: ['unit supply neutral', 'equipment ground (green or bare conductor, or the cabinet)'],
         // common practice, no source: neutral to ground reads near 0 V; about line voltage there means hot and neutral are swapped
@@ -743,6 +815,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [LINE_VOLTAGE],
         why: 'Hot to ground should read the same as hot to neutral; much less means the ground is open or poor, and the flame current has no sure way back.',
         energy: LIVE,
+        probe: { a: 'line-hot', b: 'line-ground' },
         quantity: 'vac',
         points: ['unit supply hot (L1)', 'equipment ground (green or bare conductor, or the cabinet)'],
         bands: [
@@ -789,6 +862,9 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [ROD_VOLTAGE, SPARK],
         why: 'The control proves flame by rectification: the flame conducts a small DC current from the rod to the grounded burner. A weak current points to the flame reaching the rod, the rod, its lead or the ground path.',
         energy: FIRING,
+        probe: { series: 'flame-rod-lead' },
+        at: 'proving',
+        timeline: true,
         quantity: 'udc',
         points: ['control flame-sense terminal', 'flame-rod lead, meter in series'],
         // common practice, no source: a few µA is a good signal, below about 2 µA it is low (TRADE.md); a meter in series reads negative with its leads reversed
@@ -813,11 +889,63 @@ export const DEFAULT_TREE: DefaultTree = {
         kind: 'inspect',
         title: "Flame signal by the control's own test",
         instruction:
-          "Use the flame-signal test the control provides (its test terminals, or its status light), exactly as the control's instructions describe, during a trial. Do not put a meter in the rod lead.",
-        cautions: [SINGLE_ROD, SPARK],
+          "Find which flame-signal test the control provides, on its label or in its instructions: test terminals read with the meter on DC volts, or a status light read against the control's own legend. Do not put a meter in the rod lead.",
+        cautions: [SINGLE_ROD],
         why: 'On a single-rod unit the control is the only safe place to read the flame signal; its own test says whether it sees the flame.',
+        energy: ANY,
+        observe: { what: 'flame-test-method', choices: { 'dc-test-terminals': 'test-terminals', 'status-light': 'status-light' } },
+        choices: [
+          { value: 'test-terminals', label: 'Flame-signal test terminals, read in DC volts', outcome: 'connect-flame-test-meter' },
+          { value: 'status-light', label: "A status light, read against the control's legend", outcome: 'control-status-light' },
+        ],
+      },
+      {
+        id: 'connect-flame-test-meter',
+        kind: 'action',
+        title: "Put the meter on the control's flame-signal test terminals",
+        instruction:
+          "Set the meter to DC volts. With the power locked out, connect its leads to the control's flame-signal test terminals (+ and −) as the control's instructions show. Nothing goes on the rod or its lead.",
+        cautions: [SINGLE_ROD],
+        why: "The test terminals give a DC voltage that follows the flame current, away from the spark: the meter never joins the rod's circuit.",
+        energy: POWER_OFF,
+        handles: ['electric'],
+        checklist: [
+          'Meter set to DC volts',
+          "Meter leads on the control's flame-signal test terminals (+ and −), as its instructions show",
+          'Nothing connected to the rod or its lead; meter leads routed clear of the spark lead and the burner',
+        ],
+        outcome: 'control-flame-voltage',
+      },
+      {
+        id: 'control-flame-voltage',
+        kind: 'measure',
+        title: "Flame signal at the control's test terminals (DC volts)",
+        instruction: `Call for heat and read the DC volts at the test terminals once the burners are lit, before the control drops out. The bands assume a control that gives about ${DC_TEST_TERMINALS.voltsPerMicroamp} VDC per µA of flame current, a figure recalled from such controls and not from a published source: use the control manufacturer's instructions and values where they say otherwise.`,
+        cautions: [SINGLE_ROD, SPARK],
+        why: 'The control turns its flame current into a DC voltage at its test terminals: the same rectification signal, read where it is safe on a single-rod unit.',
         energy: FIRING,
-        note: { label: 'What the control reports (a value or a light pattern, against its own legend)', required: true },
+        probe: { a: 'flame-test-plus', b: 'flame-test-minus' },
+        at: 'proving',
+        timeline: true,
+        quantity: 'vdc',
+        points: ['control flame-signal test terminal (+)', 'control flame-signal test terminal (−)'],
+        bands: dcFlameTestBands(DC_TEST_TERMINALS, { none: 'carry-over', low: 'carry-over', good: 'f-control-not-sensing' }),
+        bandsNote: TYPICAL(
+          `a control whose test terminals give about ${DC_TEST_TERMINALS.voltsPerMicroamp} VDC per µA: below ${DC_TEST_TERMINALS.lowBelow} VDC is low. The control manufacturer's values come first`,
+        ),
+      },
+      {
+        id: 'control-status-light',
+        kind: 'inspect',
+        title: "Flame signal by the control's status light",
+        instruction:
+          "During a trial, read the control's status light against the legend on the control or in its instructions, exactly as they describe. Do not put a meter in the rod lead.",
+        cautions: [SINGLE_ROD, SPARK],
+        why: 'A control without test terminals reports what it sees of the flame by its status light; its own legend says what each pattern means.',
+        energy: FIRING,
+        observe: { what: 'flame-test', at: 'proving', choices: { good: 'good', weak: 'weak', none: 'none' } },
+        timeline: true,
+        note: { label: 'What the control reports (a light pattern, against its own legend)', required: true },
         choices: [
           { value: 'good', label: 'The control reports a good flame signal', outcome: 'f-control-not-sensing' },
           { value: 'weak', label: 'It reports a weak flame signal', outcome: 'carry-over' },
@@ -833,6 +961,8 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [SPARK],
         why: 'The flame rod is usually on the far burner: if the flame never gets there, the control cannot prove it.',
         energy: FIRING,
+        observe: { what: 'flame', at: 'proving', choices: { 'all-burners': 'carries', partial: 'not-carrying' } },
+        timeline: true,
         choices: [
           { value: 'carries', label: 'Flame reaches every burner and the rod', outcome: 'rod-inspect' },
           { value: 'not-carrying', label: 'Flame stops before the rod', outcome: 'carry-over-inspect' },
@@ -846,6 +976,8 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [HOT_PARTS],
         why: 'Rust in the carry-over slots or a blocked orifice on a far burner stops the flame short of the rod.',
         energy: ALL_OFF,
+        observe: { what: 'carry-over', choices: { rusted: 'rusted' } },
+        observeMore: [{ what: 'orifices', choices: { blocked: 'orifice-blocked', clear: 'clear' } }],
         choices: [
           { value: 'rusted', label: 'Carry-over rusted, scaled or blocked', outcome: 'f-rusted-carry-over' },
           { value: 'orifice-blocked', label: "A far burner's orifice or inlet blocked", outcome: 'f-blocked-orifices' },
@@ -861,6 +993,10 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [HOT_PARTS],
         why: 'An oxide or deposit film on the rod, a cracked ceramic leaking current to ground, or a rod out of the flame are the common causes of a weak signal.',
         energy: POWER_OFF,
+        observe: {
+          what: 'flame-rod',
+          choices: { dirty: 'dirty', 'ceramic-cracked': 'ceramic-cracked', 'out-of-flame': 'out-of-flame', good: 'good' },
+        },
         handles: ['electric'],
         choices: [
           { value: 'dirty', label: 'Rod dirty, coated or oxidized', outcome: 'f-dirty-flame-rod' },
@@ -877,6 +1013,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [HOT_PARTS],
         why: 'Flame rectification needs the grounded burner to be much larger and cleaner than the rod; rust and scale there weaken the signal.',
         energy: POWER_OFF,
+        observe: { what: 'burner-surface', choices: { rusted: 'rusted', clean: 'clean' } },
         choices: [
           { value: 'rusted', label: 'Rusted or scaled', outcome: 'f-burner-surface-rust' },
           { value: 'clean', label: 'Clean metal', outcome: 'flame-lead-continuity' },
@@ -891,6 +1028,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [HOT_PARTS],
         why: 'A lead broken inside its insulation, or a terminal that lets go when warm, cuts the flame current with a rod that looks fine.',
         energy: POWER_OFF,
+        probe: { lead: 'flame-rod-lead' },
         handles: ['electric'],
         quantity: 'ohm',
         points: ['flame-rod lead, control end', 'flame-rod lead, rod end'],
@@ -909,6 +1047,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [HOT_PARTS],
         why: 'The flame current returns through the burner, its mounting and the ground lead: a loose or open ground lead breaks the circuit.',
         energy: POWER_OFF,
+        probe: { a: 'burner', b: 'ground-lead' },
         handles: ['electric'],
         quantity: 'ohm',
         points: ['burner, where the flame touches it', 'control ground terminal'],
@@ -930,7 +1069,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [LINE_VOLTAGE],
         energy: ANY,
         verification: ['Line voltage at the unit between 108 and 132 VAC', VERIFY_CYCLES],
-        tags: ['power'],
+        tags: ['power', 'no-line-power'],
         expects: [{ step: 'line-voltage', to: 108, reason: 'No line power means the unit supply reads low or zero' }],
       },
       {
@@ -977,7 +1116,7 @@ export const DEFAULT_TREE: DefaultTree = {
           'Burners stay lit past the flame-proving window',
           VERIFY_CYCLES,
         ],
-        tags: ['power', 'flame-signal'],
+        tags: ['power', 'flame-signal', 'reversed-polarity'],
         expects: [{ step: 'neutral-ground', from: 90, reason: 'Line voltage between neutral and ground' }],
       },
       {
@@ -996,7 +1135,7 @@ export const DEFAULT_TREE: DefaultTree = {
           'Burners stay lit past the flame-proving window',
           VERIFY_CYCLES,
         ],
-        tags: ['power', 'flame-signal'],
+        tags: ['power', 'flame-signal', 'lost-ground'],
         expects: [{ step: 'hot-ground', to: 108, reason: 'Hot to ground reads low' }],
       },
       {
@@ -1048,7 +1187,7 @@ export const DEFAULT_TREE: DefaultTree = {
         handles: ['electric'],
         parts: ['24 VAC control transformer, matching primary voltage and VA rating'],
         verification: ['24 VAC (18 to 30 V) at the secondary under load', 'Transformer load within its VA rating', VERIFY_CYCLES],
-        tags: ['power'],
+        tags: ['power', 'open-transformer'],
         expects: [
           { step: 'transformer-secondary', to: 18, reason: 'An open transformer gives no 24 V' },
           { step: 'transformer-primary', from: 108, reason: 'Line voltage reaches the primary' },
@@ -1066,7 +1205,7 @@ export const DEFAULT_TREE: DefaultTree = {
         handles: ['electric'],
         parts: ['Low-voltage fuse of the rating printed on the control'],
         verification: ['24 V past the fuse', 'Fuse intact after several heat cycles', VERIFY_CYCLES],
-        tags: ['power'],
+        tags: ['power', 'blown-fuse'],
         expects: [
           { step: 'transformer-secondary', from: 18, reason: 'The transformer itself gives 24 V' },
           { step: 'fuse-output', to: 18, reason: 'No 24 V past the fuse' },
@@ -1084,7 +1223,7 @@ export const DEFAULT_TREE: DefaultTree = {
         handles: ['electric'],
         parts: ['Thermostat batteries or thermostat, as found'],
         verification: ['24 V from W to C at the furnace when the thermostat calls', VERIFY_CYCLES],
-        tags: ['thermostat'],
+        tags: ['thermostat', 'no-call-for-heat'],
         expects: [
           { step: 'fuse-output', from: 18, reason: '24 V is available to the thermostat' },
           { step: 'w-voltage', to: 18, reason: 'No call reaches W' },
@@ -1103,7 +1242,7 @@ export const DEFAULT_TREE: DefaultTree = {
         handles: ['electric'],
         parts: ['High limit of the exact rating (only if failed)'],
         verification: ['About 0 V across the high limit with the call on', 'Temperature rise within the rating plate range', VERIFY_CYCLES],
-        tags: ['safety-circuit'],
+        tags: ['safety-circuit', 'open-high-limit'],
         expects: [
           { step: 'control-th-input', to: 18, reason: 'The call did not reach the control' },
           { step: 'high-limit-across', from: 2, reason: 'Voltage across the switch means it is open' },
@@ -1127,7 +1266,7 @@ export const DEFAULT_TREE: DefaultTree = {
           'No flame rollout watched through several full heat cycles',
           VERIFY_CYCLES,
         ],
-        tags: ['safety-circuit', 'combustion'],
+        tags: ['safety-circuit', 'combustion', 'tripped-rollout'],
         expects: [
           { step: 'control-th-input', to: 18, reason: 'The call did not reach the control' },
           { step: 'rollout-continuity', from: 2, reason: 'An open rollout switch reads OL' },
@@ -1164,7 +1303,7 @@ export const DEFAULT_TREE: DefaultTree = {
         handles: ['electric'],
         parts: ['DSI ignition control matching the unit'],
         verification: ['Inducer starts within seconds of each call', VERIFY_CYCLES],
-        tags: ['draft', 'control'],
+        tags: ['draft', 'control', 'no-inducer-output'],
         expects: [
           { step: 'control-th-input', from: 18, reason: 'The control has its call' },
           { step: 'inducer-voltage', to: 108, reason: 'No voltage to the inducer' },
@@ -1183,7 +1322,7 @@ export const DEFAULT_TREE: DefaultTree = {
         handles: ['electric'],
         parts: ['Inducer motor or assembly, with gasket'],
         verification: ['Inducer runs and the pressure switch closes on each call', VERIFY_CYCLES],
-        tags: ['draft'],
+        tags: ['draft', 'inducer-motor'],
         expects: [{ step: 'inducer-voltage', from: 108, reason: 'Line voltage reaches the inducer' }],
       },
       {
@@ -1197,7 +1336,7 @@ export const DEFAULT_TREE: DefaultTree = {
         energy: POWER_OFF,
         parts: ['Pressure switch hose'],
         verification: ['About 0 V across the pressure switch with the inducer running', VERIFY_CYCLES],
-        tags: ['draft'],
+        tags: ['draft', 'pressure-hose'],
         expects: [{ step: 'pressure-switch-across', from: 2, reason: 'The pressure switch stays open' }],
       },
       {
@@ -1209,7 +1348,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [NO_BYPASS, HOT_PARTS],
         energy: POWER_OFF,
         verification: ['About 0 V across the pressure switch with the inducer running', VERIFY_CYCLES],
-        tags: ['draft'],
+        tags: ['draft', 'pressure-port-blocked'],
         expects: [{ step: 'pressure-switch-across', from: 2, reason: 'The pressure switch stays open' }],
       },
       {
@@ -1223,7 +1362,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [VENT],
         energy: ALL_OFF,
         verification: ['Vent clear and sound to its termination', 'Pressure switch closes with the inducer running', VERIFY_CYCLES],
-        tags: ['draft', 'combustion'],
+        tags: ['draft', 'combustion', 'vent-blocked'],
         expects: [{ step: 'pressure-switch-across', from: 2, reason: 'The pressure switch stays open' }],
       },
       {
@@ -1237,7 +1376,7 @@ export const DEFAULT_TREE: DefaultTree = {
         handles: ['electric'],
         parts: ['Pressure switch of the exact setting'],
         verification: ['About 0 V across the pressure switch with the inducer running', VERIFY_CYCLES],
-        tags: ['draft'],
+        tags: ['draft', 'pressure-switch-failed'],
         expects: [{ step: 'pressure-switch-across', from: 2, reason: 'The pressure switch stays open' }],
       },
       {
@@ -1252,7 +1391,7 @@ export const DEFAULT_TREE: DefaultTree = {
         handles: ['electric'],
         parts: ['Spark (ignition) lead'],
         verification: ['Spark seen at the gap on every trial', VERIFY_CYCLES],
-        tags: ['spark'],
+        tags: ['spark', 'broken-spark-lead'],
         expects: [{ step: 'control-th-input', from: 18, reason: 'The control has its call, so it should spark' }],
       },
       {
@@ -1267,7 +1406,7 @@ export const DEFAULT_TREE: DefaultTree = {
         handles: ['electric'],
         parts: ['Spark (ignition) lead with boot'],
         verification: ['No arcing away from the gap, watched in the dark', 'Spark seen at the gap on every trial', VERIFY_CYCLES],
-        tags: ['spark'],
+        tags: ['spark', 'cracked-lead-insulation'],
       },
       {
         id: 'f-spark-gap-or-rod',
@@ -1286,7 +1425,7 @@ export const DEFAULT_TREE: DefaultTree = {
           'Burners light within the first seconds of the trial',
           VERIFY_CYCLES,
         ],
-        tags: ['spark'],
+        tags: ['spark', 'spark-gap'],
       },
       {
         id: 'f-control-not-sparking',
@@ -1301,7 +1440,7 @@ export const DEFAULT_TREE: DefaultTree = {
         handles: ['electric'],
         parts: ['DSI ignition control matching the unit'],
         verification: ['Spark at the gap on every trial', VERIFY_CYCLES],
-        tags: ['spark', 'control'],
+        tags: ['spark', 'control', 'control-not-sparking'],
         expects: [{ step: 'control-th-input', from: 18, reason: 'The control has its call' }],
       },
       {
@@ -1331,7 +1470,7 @@ export const DEFAULT_TREE: DefaultTree = {
         handles: ['electric'],
         parts: ['DSI ignition control matching the unit'],
         verification: ['24 V at the gas valve within the first seconds of the trial', VERIFY_CYCLES],
-        tags: ['control', 'gas-valve'],
+        tags: ['control', 'gas-valve', 'no-valve-voltage'],
         expects: [{ step: 'control-valve-output', to: 18, reason: 'No voltage at the control valve output' }],
       },
       {
@@ -1346,7 +1485,7 @@ export const DEFAULT_TREE: DefaultTree = {
         handles: ['electric'],
         parts: ['Valve wiring harness or terminals, as found'],
         verification: ['Valve voltage within about 2 V of the transformer during the trial', VERIFY_CYCLES],
-        tags: ['gas-valve', 'wiring'],
+        tags: ['gas-valve', 'wiring', 'valve-wiring-resistance'],
         expects: [{ step: 'control-valve-output', from: 18, reason: 'Normal voltage at the control' }],
       },
       {
@@ -1361,7 +1500,7 @@ export const DEFAULT_TREE: DefaultTree = {
         handles: ['electric', 'gas'],
         parts: ['Gas valve matching the fuel and the unit'],
         verification: ['Manifold pressure set to the rating plate', 'Every gas joint leak-tested', VERIFY_CYCLES],
-        tags: ['gas-valve', 'gas-supply'],
+        tags: ['gas-valve', 'gas-supply', 'valve-not-opening'],
         expects: [
           { step: 'inlet-pressure', from: 4.5, reason: 'Gas reaches the valve' },
           { step: 'manifold-pressure', to: 0.5, reason: 'No gas leaves the valve' },
@@ -1380,7 +1519,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [GAS],
         energy: ANY,
         verification: ['Inlet pressure within the band, steady when the burners fire', VERIFY_CYCLES],
-        tags: ['gas-supply'],
+        tags: ['gas-supply', 'no-gas'],
         expects: [
           { step: 'inlet-pressure', to: 4.5, reason: 'Low or no gas at the inlet' },
           { step: 'lp-inlet-pressure', to: 11, reason: 'Low or no LP at the inlet' },
@@ -1397,7 +1536,7 @@ export const DEFAULT_TREE: DefaultTree = {
         cautions: [GAS],
         energy: GAS_OFF,
         verification: ["Inlet pressure within the appliance's range, steady when the burners fire", VERIFY_CYCLES],
-        tags: ['gas-supply'],
+        tags: ['gas-supply', 'inlet-over-pressure'],
         expects: [
           { step: 'inlet-pressure', from: 14, reason: 'Natural-gas inlet over-pressure' },
           { step: 'lp-inlet-pressure', from: 14, reason: 'LP inlet over-pressure' },
@@ -1457,7 +1596,7 @@ export const DEFAULT_TREE: DefaultTree = {
         handles: ['electric', 'gas'],
         parts: ['Orifices of the size for the fuel (if damaged)'],
         verification: ['Every burner lights and carries across on each trial', 'Every gas joint leak-tested', VERIFY_CYCLES],
-        tags: ['gas-supply', 'burner'],
+        tags: ['gas-supply', 'burner', 'blocked-orifices'],
       },
       {
         id: 'f-no-ignition-not-isolated',
@@ -1502,7 +1641,7 @@ export const DEFAULT_TREE: DefaultTree = {
           'Every gas joint leak-tested',
           VERIFY_CYCLES,
         ],
-        tags: ['burner', 'flame-signal'],
+        tags: ['burner', 'flame-signal', 'rusted-carry-over'],
       },
       {
         id: 'f-dirty-flame-rod',
@@ -1516,7 +1655,7 @@ export const DEFAULT_TREE: DefaultTree = {
         handles: ['electric'],
         parts: ['Flame rod (if pitted)'],
         verification: ['Flame signal after the repair in the good band (2 µA or more)', VERIFY_CYCLES],
-        tags: ['flame-signal'],
+        tags: ['flame-signal', 'dirty-flame-rod'],
         expects: [{ step: 'flame-signal', to: 2, reason: 'A dirty rod gives a low or no flame signal' }],
       },
       {
@@ -1531,7 +1670,7 @@ export const DEFAULT_TREE: DefaultTree = {
         handles: ['electric'],
         parts: ['Spark rod or flame rod, as found'],
         verification: ['Spark at the gap on every trial', 'Burners light and stay lit on every trial', VERIFY_CYCLES],
-        tags: ['spark', 'flame-signal'],
+        tags: ['spark', 'flame-signal', 'cracked-rod-ceramic'],
       },
       {
         id: 'f-flame-rod-out-of-flame',
@@ -1558,7 +1697,7 @@ export const DEFAULT_TREE: DefaultTree = {
         handles: ['electric', 'gas'],
         parts: ['Burner (if rusted through)'],
         verification: ['Flame signal after the repair in the good band (2 µA or more)', 'Every gas joint leak-tested', VERIFY_CYCLES],
-        tags: ['flame-signal', 'burner'],
+        tags: ['flame-signal', 'burner', 'burner-surface-rust'],
         expects: [{ step: 'flame-signal', to: 2, reason: 'A poor return gives a low signal' }],
       },
       {
@@ -1572,7 +1711,7 @@ export const DEFAULT_TREE: DefaultTree = {
         handles: ['electric'],
         parts: ['Flame-rod lead'],
         verification: ['Lead continuity steady when flexed', 'Burners stay lit past the flame-proving window', VERIFY_CYCLES],
-        tags: ['flame-signal', 'wiring'],
+        tags: ['flame-signal', 'wiring', 'flame-lead-open'],
         expects: [{ step: 'flame-lead-continuity', from: 2, reason: 'The lead reads high or open' }],
       },
       {
@@ -1589,7 +1728,7 @@ export const DEFAULT_TREE: DefaultTree = {
           'Burners stay lit past the flame-proving window',
           VERIFY_CYCLES,
         ],
-        tags: ['flame-signal', 'wiring'],
+        tags: ['flame-signal', 'wiring', 'open-ground-lead'],
         expects: [{ step: 'ground-path', from: 2, reason: 'The ground path reads high or open' }],
       },
       {
@@ -1605,7 +1744,7 @@ export const DEFAULT_TREE: DefaultTree = {
         handles: ['electric'],
         parts: ['DSI ignition control matching the unit'],
         verification: ['Burners stay lit past the flame-proving window on every trial', VERIFY_CYCLES],
-        tags: ['flame-signal', 'control'],
+        tags: ['flame-signal', 'control', 'control-not-sensing'],
         expects: [
           { step: 'neutral-ground', to: 2, reason: 'Polarity is right' },
           { step: 'hot-ground', from: 108, reason: 'The ground is sound' },

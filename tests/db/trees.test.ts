@@ -4,6 +4,7 @@ import { db } from '@/db/knex';
 import { getTreeVersion, listTrees } from '@/db/trees';
 import { DEFAULT_TREE, DEFAULT_TREE_GRAPH } from '@/lib/trees/default-tree';
 import { NO_HEAT_DSI_R1 } from '@/lib/trees/builtin/no-heat-dsi-r1';
+import { NO_HEAT_DSI_R2 } from '@/lib/trees/builtin/no-heat-dsi-r2';
 import { unmodifiedRevisionOf } from '@/lib/trees/builtin';
 import { treeGraphSchema } from '@/lib/trees/schema';
 import { AppError } from '@/lib/errors';
@@ -73,21 +74,32 @@ describe('the default tree', () => {
 describe('built-in revisions', () => {
   it('knows an unmodified copy of each revision, and not an edited one', () => {
     expect(unmodifiedRevisionOf(JSON.parse(JSON.stringify(treeGraphSchema.parse(NO_HEAT_DSI_R1.graph))))).toBe(1);
-    expect(unmodifiedRevisionOf(DEFAULT_TREE_GRAPH)).toBe(2);
+    expect(unmodifiedRevisionOf(JSON.parse(JSON.stringify(treeGraphSchema.parse(NO_HEAT_DSI_R2.graph))))).toBe(2);
+    expect(unmodifiedRevisionOf(DEFAULT_TREE_GRAPH)).toBe(3);
+    expect(DEFAULT_TREE.revision).toBe(3);
     const edited = treeGraphSchema.parse(NO_HEAT_DSI_R1.graph);
     edited.steps[0] = { ...edited.steps[0], title: 'Line voltage, our way' };
     expect(unmodifiedRevisionOf(edited)).toBeNull();
+    const editedR2 = treeGraphSchema.parse(NO_HEAT_DSI_R2.graph);
+    editedR2.steps[0] = { ...editedR2.steps[0], title: 'Line voltage, our way' };
+    expect(unmodifiedRevisionOf(editedR2)).toBeNull();
   });
 
   it('publishes the current revision on start for a company still on an unmodified earlier one, once; an edited tree is left alone', async () => {
     await inRolledBackTransaction(async (trx) => {
       const r1 = JSON.stringify(treeGraphSchema.parse(NO_HEAT_DSI_R1.graph));
+      // Revision 2 as the store keeps it: its defaults left out (the raw authored graph).
+      const r2 = JSON.stringify(NO_HEAT_DSI_R2.graph);
       const edited = treeGraphSchema.parse(NO_HEAT_DSI_R1.graph);
       edited.steps[0] = { ...edited.steps[0], title: 'Line voltage, our way' };
+      const editedR2 = treeGraphSchema.parse(NO_HEAT_DSI_R2.graph);
+      editedR2.steps[1] = { ...editedR2.steps[1], why: 'Our own note on the trial.' };
       const made: Record<string, { companyId: string; treeId: string; versionId: string }> = {};
       for (const [name, graph] of [
         ['Untouched Heating', r1],
+        ['Second Heating', r2],
         ['Edited Heating', JSON.stringify(edited)],
+        ['Edited-Second Heating', JSON.stringify(editedR2)],
       ] as const) {
         const [company] = await trx('companies')
           .insert({ name, office_email: `${name.split(' ')[0].toLowerCase()}@example.test` })
@@ -114,11 +126,24 @@ describe('built-in revisions', () => {
       const untouched = await versions(made['Untouched Heating'].treeId);
       expect(untouched.map((v) => [v.version, v.status, v.builtin_revision])).toEqual([
         [1, 'retired', null],
-        [2, 'published', 2],
+        [2, 'published', 3],
       ]);
       expect(treeGraphSchema.parse(untouched[1].graph)).toEqual(DEFAULT_TREE_GRAPH);
-      const editedVersions = await versions(made['Edited Heating'].treeId);
-      expect(editedVersions.map((v) => [v.version, v.status])).toEqual([[1, 'published']]);
+      const second = await versions(made['Second Heating'].treeId);
+      expect(second.map((v) => [v.version, v.status, v.builtin_revision])).toEqual([
+        [1, 'retired', null],
+        [2, 'published', 3],
+      ]);
+      expect(treeGraphSchema.parse(second[1].graph)).toEqual(DEFAULT_TREE_GRAPH);
+      // The retired revision 2 keeps its graph (diagnoses on it keep it).
+      expect(treeGraphSchema.parse(second[0].graph)).toEqual(treeGraphSchema.parse(NO_HEAT_DSI_R2.graph));
+      for (const name of ['Edited Heating', 'Edited-Second Heating']) {
+        const editedVersions = await versions(made[name].treeId);
+        expect(
+          editedVersions.map((v) => [v.version, v.status]),
+          name,
+        ).toEqual([[1, 'published']]);
+      }
     });
   });
 });

@@ -1,8 +1,10 @@
-// The built-in tree, revision 2, against the trade: every path of the whole visit walked with the
-// machine for every combination of unit facts. Where a check is about a defect of revision 1, it is
-// run on revision 1 too and must find the defect there (so the check can fail).
+// The built-in tree, revision 3, against the trade: every path of the whole visit walked with the
+// machine for every combination of unit facts. Where a check is about a defect of revision 1 (or 2),
+// it is run on that revision too and must find the defect there (so the check can fail).
 import { DEFAULT_TREE, DEFAULT_TREE_GRAPH } from '@/lib/trees/default-tree';
 import { NO_HEAT_DSI_R1 } from '@/lib/trees/builtin/no-heat-dsi-r1';
+import { NO_HEAT_DSI_R2 } from '@/lib/trees/builtin/no-heat-dsi-r2';
+import { DC_TEST_TERMINALS } from '@/lib/trees/control-profiles';
 import { stepMap } from '@/lib/trees/graph';
 import {
   treeGraphSchema,
@@ -18,7 +20,8 @@ import { explore, manualAnswers, visitsBefore, type Walk } from '../../support/w
 
 const graph = DEFAULT_TREE_GRAPH;
 const r1Graph: TreeGraph = treeGraphSchema.parse(NO_HEAT_DSI_R1.graph);
-const tree: TreeVersion = { id: 'tv-r2', version: 2, graph };
+const r2Graph: TreeGraph = treeGraphSchema.parse(NO_HEAT_DSI_R2.graph);
+const tree: TreeVersion = { id: 'tv-r3', version: 3, graph };
 const r1: TreeVersion = { id: 'tv-r1', version: 1, graph: r1Graph };
 const steps = stepMap(graph);
 const findings = graph.steps.filter((s): s is FindingStep => s.kind === 'finding');
@@ -44,12 +47,43 @@ function handlingLive(ws: Walk[]): string[] {
   return out;
 }
 
-describe('the built-in tree, revision 2', () => {
+describe('the built-in tree, revision 3', () => {
   it('passes the validator and has its identity', () => {
     const r = validateGraph(DEFAULT_TREE.graph);
     expect(r.ok ? [] : r.problems).toEqual([]);
-    expect(DEFAULT_TREE).toMatchObject({ slug: 'no-heat-dsi', title: 'No heat — direct spark ignition', revision: 2 });
+    expect(DEFAULT_TREE).toMatchObject({ slug: 'no-heat-dsi', title: 'No heat — direct spark ignition', revision: 3 });
     expect(NO_HEAT_DSI_R1.revision).toBe(1);
+    expect(NO_HEAT_DSI_R2.revision).toBe(2);
+    const r2 = validateGraph(NO_HEAT_DSI_R2.graph);
+    expect(r2.ok ? [] : r2.problems).toEqual([]);
+  });
+
+  it('keeps the step ids, titles and choices of revision 2 where it can, and adds the single-rod test steps', () => {
+    const r2Steps = stepMap(r2Graph);
+    const changed = ['control-flame-test'];
+    for (const old of r2Graph.steps) {
+      const now = steps.get(old.id);
+      expect(now, old.id).toBeDefined();
+      if (changed.includes(old.id)) continue;
+      expect(now!.title, old.id).toBe(old.title);
+      expect(now!.kind, old.id).toBe(old.kind);
+      if (old.kind === 'inspect') expect((now as InspectStep).choices, old.id).toEqual(old.choices);
+      if (old.kind === 'measure') expect((now as MeasureStep).bands, old.id).toEqual(old.bands);
+    }
+    const added = graph.steps.filter((s) => !r2Steps.has(s.id)).map((s) => s.id);
+    expect(added.sort()).toEqual(['connect-flame-test-meter', 'control-flame-voltage', 'control-status-light']);
+  });
+
+  it('says where every reading is taken and what every look observes, so the bench can answer each step; revision 2 did not', () => {
+    for (const s of graph.steps) {
+      if (s.kind === 'measure') expect(s.probe, s.id).toBeDefined();
+      if (s.kind === 'inspect') expect(s.observe, s.id).toBeDefined();
+    }
+    expect(r2Graph.steps.some((s) => (s.kind === 'measure' && s.probe) || (s.kind === 'inspect' && s.observe))).toBe(false);
+    // A reading of the valve or the gas only exists while the control powers the valve (TRADE.md, the DSI sequence).
+    for (const id of ['valve-voltage', 'control-valve-output', 'inlet-pressure', 'manifold-pressure', 'flame-signal']) {
+      expect(measure(id).at, id).toBe('proving');
+    }
   });
 
   it('reaches every finding, and every walk goes on through repair, restore and verification to the end', () => {
@@ -162,9 +196,31 @@ describe('the built-in tree, revision 2', () => {
     expect(single.length).toBeGreaterThan(0);
     expect(single.filter(series).map((w) => where(w))).toEqual([]);
     expect(single.some((w) => w.visits.some((v) => v.stateId === 'control-flame-test'))).toBe(true);
-    const test = inspect('control-flame-test');
-    expect(test.cautions.map((c) => c.signal)).toContain('DANGER');
-    expect(test.note?.required).toBe(true);
+    // Both of the control's own tests are reached on a single-rod unit, each with the DANGER caution.
+    for (const id of ['control-flame-test', 'connect-flame-test-meter', 'control-flame-voltage', 'control-status-light']) {
+      expect(
+        single.some((w) => w.visits.some((v) => v.stateId === id)),
+        id,
+      ).toBe(true);
+      expect(
+        steps.get(id)!.cautions.map((c) => c.signal),
+        id,
+      ).toContain('DANGER');
+    }
+    expect(walks.filter((w) => w.unit.ignition === 'two-rod' && w.visits.some((v) => v.stateId === 'control-flame-test'))).toEqual([]);
+    expect(inspect('control-status-light').note?.required).toBe(true);
+    // The test terminals are read in DC volts with the meter on the control, never on the rod or its lead.
+    const volts = measure('control-flame-voltage');
+    expect(volts.quantity).toBe('vdc');
+    expect(volts.probe).toEqual({ a: 'flame-test-plus', b: 'flame-test-minus' });
+    // The bands are the control profile's (lib/trees/control-profiles.ts; from memory, the manufacturer's values come first).
+    expect(findBand(volts.bands, DC_TEST_TERMINALS.lowBelow - 0.01)!.band.outcome).toBe('carry-over');
+    expect(findBand(volts.bands, DC_TEST_TERMINALS.lowBelow)!.band.outcome).toBe('f-control-not-sensing');
+    expect(findBand(volts.bands, -1)!.band.askAgain).toMatch(/leads are reversed/);
+    expect(volts.instruction).toMatch(/manufacturer's instructions and values/);
+    // Revision 2 read the control's test as a choice only.
+    expect(r2Graph.steps.find((s) => s.id === 'control-flame-test')!.kind).toBe('inspect');
+    expect(r2Graph.steps.some((s) => s.kind === 'measure' && s.quantity === 'vdc')).toBe(false);
     // Revision 1 had no ignition branch: every unit reached the series meter.
     expect(r1Graph.steps.some((s) => s.kind === 'fact')).toBe(false);
     expect(r1Walks.filter(series).length).toBe(r1Walks.filter((w) => w.visits.some((v) => v.stateId === 'flame-signal')).length);
@@ -322,17 +378,20 @@ describe('the built-in tree, revision 2', () => {
 
   it('retakes the flame signal after the repair where the walk took it, with the meter put back first', () => {
     for (const w of walks) {
-      const took = w.visits.some((v) => v.stateId === 'flame-signal');
-      const recheck = w.visits.findIndex((v) => v.stateId.startsWith('recheck--flame-signal--'));
-      expect(recheck >= 0, where(w)).toBe(took);
-      if (recheck >= 0) {
-        const reconnect = w.visits.findIndex((v) => v.stateId.startsWith('reconnect--flame-signal--'));
-        expect(reconnect, where(w)).toBeGreaterThan(-1);
-        expect(reconnect, where(w)).toBeLessThan(recheck);
-        expect(w.visits[reconnect].energy.electric, where(w)).toBe('off');
-        expect(w.visits[recheck].energy, where(w)).toEqual({ electric: 'on', gas: 'on' });
+      for (const reading of ['flame-signal', 'control-flame-voltage']) {
+        const took = w.visits.some((v) => v.stateId === reading);
+        const recheck = w.visits.findIndex((v) => v.stateId.startsWith(`recheck--${reading}--`));
+        expect(recheck >= 0, where(w)).toBe(took);
+        if (recheck >= 0) {
+          const reconnect = w.visits.findIndex((v) => v.stateId.startsWith(`reconnect--${reading}--`));
+          expect(reconnect, where(w)).toBeGreaterThan(-1);
+          expect(reconnect, where(w)).toBeLessThan(recheck);
+          expect(w.visits[reconnect].energy.electric, where(w)).toBe('off');
+          expect(w.visits[recheck].energy, where(w)).toEqual({ electric: 'on', gas: 'on' });
+        }
       }
     }
+    expect(walks.some((w) => w.visits.some((v) => v.stateId.startsWith('recheck--control-flame-voltage--')))).toBe(true);
   });
 
   it('never contradicts itself: on every path, each reading lies inside what the finding expects of that step', () => {
