@@ -55,6 +55,8 @@ export interface Attempt {
   apprentice: Person;
   benchSessionId: string;
   faultId: string;
+  /** The tree version walked in the wizard; null for an attempt whose finding is reported by hand. */
+  treeVersionId: string | null;
   findingStepId: string | null;
   score: Score | null;
   startedAt: Date;
@@ -235,6 +237,7 @@ const toAttempt = (r: Record<string, unknown>): Attempt => ({
   apprentice: { id: r.apprentice_id as string, name: r.apprentice_name as string, email: r.apprentice_email as string },
   benchSessionId: r.bench_session_id as string,
   faultId: r.fault_id as string,
+  treeVersionId: (r.tree_version_id as string | null) ?? null,
   findingStepId: (r.finding_step_id as string | null) ?? null,
   score: (r.score as Score | null) ?? null,
   startedAt: r.started_at as Date,
@@ -257,7 +260,8 @@ export async function createAttempt(
     assignment,
     benchSessionId,
     faultId,
-  }: { companyId: string; assignment: Assignment; benchSessionId: string; faultId: string },
+    treeVersionId = null,
+  }: { companyId: string; assignment: Assignment; benchSessionId: string; faultId: string; treeVersionId?: string | null },
   trx: Knex = db,
 ): Promise<string> {
   const [row] = await trx('practice_attempts')
@@ -268,6 +272,7 @@ export async function createAttempt(
       apprentice_id: assignment.apprentice.id,
       bench_session_id: benchSessionId,
       fault_id: faultId,
+      tree_version_id: treeVersionId,
     })
     .returning('id');
   return row.id as string;
@@ -334,4 +339,86 @@ export async function listAwaitingSignOff(
     site: r.site as string,
     at: r.started_at as Date,
   }));
+}
+
+/** The company's published version of the tree with this slug (the newest), or null. */
+export async function getPublishedVersionId(
+  { companyId, slug }: { companyId: string; slug: string },
+  trx: Knex = db,
+): Promise<string | null> {
+  const row = await trx('tree_versions as v')
+    .join('fault_trees as t', 't.id', 'v.tree_id')
+    .where({ 't.company_id': companyId, 't.slug': slug, 'v.status': 'published' })
+    .orderBy('v.version', 'desc')
+    .first('v.id');
+  return (row?.id as string | undefined) ?? null;
+}
+
+// ── The answers of a practice walk ──────────────────────────────────────────────────────────────
+
+export interface PracticeAnswerRecord {
+  attemptId: string;
+  seq: number;
+  clientId: string;
+  stepId: string;
+  /** The answer as the wizard reads it back (apiAnswerSchema's shape). */
+  answer: Record<string, unknown>;
+  /** The bench event the reading or look was checked against, if one was. */
+  benchSeq: number | null;
+  createdAt: Date;
+}
+
+const toAnswer = (r: Record<string, unknown>): PracticeAnswerRecord => ({
+  attemptId: r.attempt_id as string,
+  seq: r.seq as number,
+  clientId: r.client_id as string,
+  stepId: r.step_id as string,
+  answer: r.answer as Record<string, unknown>,
+  benchSeq: (r.bench_seq as number | null) ?? null,
+  createdAt: r.created_at as Date,
+});
+
+/** The answers of an attempt, in order. The caller has checked the attempt is within reach. */
+export async function listPracticeAnswers(
+  { companyId, attemptId }: { companyId: string; attemptId: string },
+  trx: Knex = db,
+): Promise<PracticeAnswerRecord[]> {
+  if (!isUuid(attemptId)) return [];
+  const rows = await trx('practice_answers').where({ company_id: companyId, attempt_id: attemptId }).orderBy('seq');
+  return rows.map(toAnswer);
+}
+
+/**
+ * Appends an answer as the attempt's `seq`-th. Call it holding the attempt's bench session row lock
+ * (answers and bench events line up behind it); the primary key refuses a seq taken meanwhile.
+ */
+export async function appendPracticeAnswer(
+  { companyId, attemptId, seq, clientId, stepId, answer, benchSeq }: Omit<PracticeAnswerRecord, 'createdAt'> & { companyId: string },
+  trx: Knex = db,
+): Promise<PracticeAnswerRecord> {
+  try {
+    const [row] = await trx('practice_answers')
+      .insert({
+        company_id: companyId,
+        attempt_id: attemptId,
+        seq,
+        client_id: clientId,
+        step_id: stepId,
+        answer: JSON.stringify(answer),
+        bench_seq: benchSeq,
+      })
+      .returning('*');
+    return toAnswer(row);
+  } catch (error) {
+    if ((error as { code?: string }).code === '23505') throw new AppError('conflict', 'The walk moved on meanwhile. Try again.');
+    throw error;
+  }
+}
+
+/** Takes back the attempt's last answer (an undo), if it is still `clientId`'s. */
+export async function deleteLastPracticeAnswer(
+  { companyId, attemptId, seq }: { companyId: string; attemptId: string; seq: number },
+  trx: Knex = db,
+): Promise<number> {
+  return trx('practice_answers').where({ company_id: companyId, attempt_id: attemptId, seq }).delete();
 }

@@ -90,6 +90,8 @@ export const POLICY = {
   'treeVersions.validation': { roles: dispatchers },
   'treeVersions.diff': { roles: dispatchers },
   'treeVersions.export': { roles: dispatchers },
+  // The isolation check: every fault of the bench's library through a version, before publishing.
+  'treeVersions.isolationCheck': { roles: dispatchers },
   // Usage: how diagnoses went on each version, and the company's findings, first-time fix and time to a finding.
   'trees.usage': { roles: dispatchers },
   'trees.companyUsage': { roles: dispatchers },
@@ -105,6 +107,9 @@ export const POLICY = {
   'practice.attempts.start': { roles: { apprentice: 'own' } },
   'practice.attempts.get': { roles: { apprentice: 'own', trainer: 'company', lead: 'company', admin: 'company' } },
   'practice.attempts.finish': { roles: { apprentice: 'own' } },
+  // The walk of an attempt in the wizard: only its apprentice answers (and undoes) its steps.
+  'practice.attempts.answer': { roles: { apprentice: 'own' } },
+  'practice.attempts.undo': { roles: { apprentice: 'own' } },
   'practice.progress': { roles: { trainer: 'company', lead: 'company', admin: 'company' } },
   // The bench of a running attempt: only its apprentice works it (the score is read from what it stores).
   'practice.bench.get': { roles: { apprentice: 'own' } },

@@ -18,7 +18,10 @@ export interface BenchClient {
   state(): Promise<BenchState>;
   act(action: BenchAction, seconds?: number): Promise<{ time: number; sequenceState: string }>;
   measure(request: { mode: Exclude<MeterMode, 'udc'>; a: string; b: string } | { mode: 'udc'; series: string }): Promise<BenchMeasureReply>;
-  observe(what: 'spark' | 'flame'): Promise<BenchObserveReply>;
+  /** Any observation of the bench (lib/bench/points.ts OBSERVATIONS): the spark, the flame, a look at a part. */
+  observe(what: string): Promise<BenchObserveReply>;
+  /** A gauge (manometer on the valve's taps, gap gauge), where the bench offers them (a practice attempt's). */
+  gauge?(id: string): Promise<BenchMeasureReply>;
 }
 
 async function send<S extends ZodType>(url: string, schema: S, body?: unknown): Promise<z.output<S>> {
@@ -42,11 +45,13 @@ async function send<S extends ZodType>(url: string, schema: S, body?: unknown): 
  * A bench over HTTP, at `base`: a session of the bench API (`/api/bench/sessions/{id}`) or the bench
  * of a practice attempt (`/api/practice/attempts/{id}/bench`); both answer the same four requests.
  */
-export function httpBenchClient(base: string): BenchClient {
+export function httpBenchClient(base: string, { gauges = false }: { gauges?: boolean } = {}): BenchClient {
   return {
     state: () => send(base, benchStateSchema),
     act: (action, seconds) => send(`${base}/actions`, benchActionReplySchema, seconds === undefined ? { action } : { action, seconds }),
     measure: (request) => send(`${base}/measure`, benchMeasureReplySchema, request),
     observe: (what) => send(`${base}/observe`, benchObserveReplySchema, { what }),
+    // Only a practice attempt's bench reads gauges (`{ mode: 'gauge', gauge }` on its measure).
+    ...(gauges ? { gauge: (id: string) => send(`${base}/measure`, benchMeasureReplySchema, { mode: 'gauge', gauge: id }) } : {}),
   };
 }

@@ -1,7 +1,7 @@
 'use client';
 
 import clsx from 'clsx';
-import { useCallback, useEffect, useRef, useState } from 'react';
+import { useCallback, useEffect, useImperativeHandle, useRef, useState, type Ref } from 'react';
 import { BenchSchematic } from '@/components/bench/bench-schematic';
 import type { BenchClient } from '@/components/bench/bench-client';
 import { SequenceTimeline, type TimelineEntry } from '@/components/bench/sequence-timeline';
@@ -23,7 +23,7 @@ export const METER_MODES: readonly { mode: MeterMode; label: string; unit: strin
 
 export interface Reading {
   n: number;
-  mode: MeterMode;
+  mode: MeterMode | 'gauge';
   where: string;
   value: number | null;
   unit: string;
@@ -32,10 +32,34 @@ export interface Reading {
 
 export interface Observation {
   n: number;
-  what: 'spark' | 'flame';
+  what: string;
   result: string;
   time: number;
 }
+
+/** What was taken on the bench, as the screen tells a parent (the practice wizard fills its steps from it). */
+export type BenchTaken =
+  | {
+      kind: 'measure';
+      n: number;
+      request: { mode: string; a?: string; b?: string; series?: string; gauge?: string };
+      value: number | null;
+      unit: string;
+      time: number;
+    }
+  | { kind: 'observe'; n: number; what: string; result: string; time: number };
+
+/** What a parent may ask of the screen: a look, listed and timed like one from the screen's own buttons. */
+export interface BenchHandle {
+  observe(what: string): Promise<{ result: string; time: number }>;
+}
+
+/** The gauges a practice bench reads, with their words. */
+export const GAUGE_BUTTONS: readonly { id: string; label: string; unit: string }[] = [
+  { id: 'inlet-pressure', label: 'Inlet pressure', unit: 'inWC' },
+  { id: 'manifold-pressure', label: 'Manifold pressure', unit: 'inWC' },
+  { id: 'spark-gap', label: 'Spark gap', unit: 'in' },
+];
 
 const OBSERVATION_WORDS: Record<string, string> = {
   'at-gap': 'Spark at the gap',
@@ -45,6 +69,11 @@ const OBSERVATION_WORDS: Record<string, string> = {
   'all-burners': 'Flame on all burners',
   partial: 'Flame on some burners only',
 };
+
+/** A result in words where the screen has them, else as the bench says it. */
+export function resultWords(result: string): string {
+  return OBSERVATION_WORDS[result] ?? result.replace(/-/g, ' ');
+}
 
 export function formatValue(value: number | null, mode: MeterMode): string {
   if (value === null || !Number.isFinite(value)) return 'OL';
@@ -62,9 +91,13 @@ interface Props {
   unit: UnitProfile;
   /** Taken readings and observations, for a parent that wants them (the finding form shows a count). */
   onActivity?: (count: number) => void;
+  /** Each reading and look as it is taken. */
+  onTaken?: (taken: BenchTaken) => void;
+  /** Looks asked by a parent (the wizard's "Observe"). */
+  handle?: Ref<BenchHandle>;
 }
 
-export function BenchScreen({ client, unit, onActivity }: Props) {
+export function BenchScreen({ client, unit, onActivity, onTaken, handle }: Props) {
   const [state, setState] = useState<BenchState | null>(null);
   const [loadError, setLoadError] = useState<string | null>(null);
   const [error, setError] = useState<string | null>(null);
@@ -170,16 +203,51 @@ export function BenchScreen({ client, unit, onActivity }: Props) {
       const n = counter.current;
       setReadings((r) => [{ n, mode, where, value: reply.value, unit: reply.unit, time: reply.time }, ...r]);
       setState((s) => (s ? { ...s, time: reply.time } : s));
+      onTaken?.({ kind: 'measure', n, request, value: reply.value, unit: reply.unit, time: reply.time });
     });
 
-  const observe = (what: 'spark' | 'flame') =>
+  const readGauge = (id: string) =>
     run(async () => {
-      const reply = await client.observe(what);
+      if (!client.gauge) return;
+      const reply = await client.gauge(id);
+      const label = GAUGE_BUTTONS.find((g) => g.id === id)?.label ?? id;
+      setDisplay({ text: reply.value === null ? 'OL' : String(reply.value), unit: reply.unit });
       counter.current += 1;
       const n = counter.current;
-      setObservations((o) => [{ n, what, result: reply.result, time: reply.time }, ...o]);
+      setReadings((r) => [{ n, mode: 'gauge', where: label, value: reply.value, unit: reply.unit, time: reply.time }, ...r]);
       setState((s) => (s ? { ...s, time: reply.time } : s));
+      onTaken?.({ kind: 'measure', n, request: { mode: 'gauge', gauge: id }, value: reply.value, unit: reply.unit, time: reply.time });
     });
+
+  const look = async (what: string) => {
+    const reply = await client.observe(what);
+    counter.current += 1;
+    const n = counter.current;
+    setObservations((o) => [{ n, what, result: reply.result, time: reply.time }, ...o]);
+    setState((s) => (s ? { ...s, time: reply.time } : s));
+    onTaken?.({ kind: 'observe', n, what, result: reply.result, time: reply.time });
+    return reply;
+  };
+
+  const observe = (what: string) =>
+    run(async () => {
+      await look(what);
+    });
+
+  useImperativeHandle(handle, () => ({
+    observe: async (what: string) => {
+      setBusy(true);
+      setError(null);
+      try {
+        return await look(what);
+      } catch (e) {
+        setError((e as Error).message);
+        throw e;
+      } finally {
+        setBusy(false);
+      }
+    },
+  }));
 
   if (loadError) return <FormMessage message={`The bench could not be opened: ${loadError}`} />;
   if (!state) {
@@ -192,13 +260,17 @@ export function BenchScreen({ client, unit, onActivity }: Props) {
 
   const meter = METER_MODES.find((m) => m.mode === mode)!;
   const history = [
-    ...readings.map((r) => ({
-      n: r.n,
-      time: r.time,
-      text: `${METER_MODES.find((m) => m.mode === r.mode)!.label} ${r.where}`,
-      value: `${formatValue(r.value, r.mode)} ${r.unit}`,
-    })),
-    ...observations.map((o) => ({ n: o.n, time: o.time, text: `Look at the ${o.what}`, value: OBSERVATION_WORDS[o.result] ?? o.result })),
+    ...readings.map((r) =>
+      r.mode === 'gauge'
+        ? { n: r.n, time: r.time, text: `Gauge: ${r.where}`, value: `${r.value === null ? 'OL' : r.value} ${r.unit}` }
+        : {
+            n: r.n,
+            time: r.time,
+            text: `${METER_MODES.find((m) => m.mode === r.mode)!.label} ${r.where}`,
+            value: `${formatValue(r.value, r.mode)} ${r.unit}`,
+          },
+    ),
+    ...observations.map((o) => ({ n: o.n, time: o.time, text: `Look at the ${o.what}`, value: resultWords(o.result) })),
   ].sort((a, b) => b.n - a.n);
 
   return (
@@ -301,6 +373,18 @@ export function BenchScreen({ client, unit, onActivity }: Props) {
               Look at the flame
             </button>
           </div>
+          {client.gauge && (
+            <div>
+              <p className="mb-2 text-base text-muted">Gauges</p>
+              <div className="grid grid-cols-3 gap-2">
+                {GAUGE_BUTTONS.map((g) => (
+                  <button key={g.id} type="button" className="btn-secondary px-2" disabled={busy} onClick={() => readGauge(g.id)}>
+                    {g.label}
+                  </button>
+                ))}
+              </div>
+            </div>
+          )}
           <div>
             <p className="mb-2 text-base text-muted">Wait on the sequence</p>
             <div className="grid grid-cols-4 gap-2">

@@ -46,8 +46,12 @@ export function describeEvent(e: PracticeEventOutput): { what: string; value: st
   if (e.kind === 'action')
     return { what: `${ACTION_WORDS[e.action] ?? e.action}${e.action === 'wait' && e.seconds ? ` ${e.seconds} s` : ''}`, value: null };
   if (e.kind === 'observe') return { what: `Looked at the ${e.what}`, value: e.result };
+  const value = e.value === null ? 'OL' : `${Math.round(e.value * 1000) / 1000}`;
+  if (e.mode === 'gauge') {
+    const unit = e.gauge === 'spark-gap' ? 'in' : 'inWC';
+    return { what: `Gauge: ${e.gauge}`, value: `${value} ${unit}` };
+  }
   const where = e.mode === 'udc' ? `in series in ${e.series}` : e.lead ? `of the ${e.lead}, disconnected` : `${e.a} → ${e.b}`;
-  const value = e.value === null ? 'OL' : `${Math.round(e.value * 100) / 100}`;
   return { what: `${MODE_WORDS[e.mode]} ${where}`, value: `${value} ${MODE_WORDS[e.mode]}` };
 }
 
@@ -78,6 +82,37 @@ export function AttemptPath({ attempt }: { attempt: Pick<AttemptOutput, 'events'
                 <span className="font-mono text-muted">{clock(l.time)}</span> {l.what}
               </span>
               {l.value && <span className="font-mono font-semibold">{l.value}</span>}
+            </li>
+          ))}
+        </ol>
+      )}
+    </section>
+  );
+}
+
+/** The steps of the tree the walk took, with each answer: what the apprentice answered from the bench. */
+export function WalkPath({ walk }: { walk: NonNullable<AttemptOutput['walk']> }) {
+  return (
+    <section aria-labelledby="walk-title" className="card space-y-2">
+      <h2 id="walk-title" className="text-lg font-bold">
+        The walk: {walk.title} · v{walk.version}
+      </h2>
+      {walk.path.length === 0 ? (
+        <p className="text-muted">No step was answered.</p>
+      ) : (
+        <ol className="divide-y divide-line" data-testid="walk-path">
+          {walk.path.map((p) => (
+            <li key={p.clientId} className="flex flex-wrap justify-between gap-2 py-2 text-base">
+              <span>{p.stepTitle}</span>
+              <span className="font-mono font-semibold">
+                {p.kind === 'measure'
+                  ? `${p.overRange ? 'OL' : (p.text ?? p.value)} ${p.unit ?? ''}${p.band ? ` · ${p.band}` : ''}`
+                  : p.kind === 'inspect'
+                    ? (p.choiceLabel ?? p.choice)
+                    : p.confirmed
+                      ? 'Done'
+                      : '—'}
+              </span>
             </li>
           ))}
         </ol>

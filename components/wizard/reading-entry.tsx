@@ -26,6 +26,17 @@ const HINTS: Partial<Record<MeasureStep['quantity'], string>> = {
 };
 const HINT = 'Type the value or use the keypad.';
 
+/**
+ * Where a step's reading comes from instead of the keypad (the bench of a practice diagnosis): what
+ * to measure, and the latest reading that answers the step, which fills it.
+ */
+export interface ReadingSource {
+  /** What to measure, in words ("V AC across xfmr-hot and xfmr-common"). */
+  hint: string;
+  /** The latest reading that answers the step; `key` is new for each reading taken. */
+  reading: (ReadingValue & { key: string; label: string }) | null;
+}
+
 export interface ReadingEntryProps {
   step: Pick<MeasureStep, 'id' | 'quantity' | 'bands'>;
   value: ReadingValue;
@@ -33,9 +44,11 @@ export interface ReadingEntryProps {
   /** Enter in the text field: the form's primary action. */
   onSubmit?: () => void;
   disabled?: boolean;
+  /** The reading is taken elsewhere (the bench): shown in place of the keypad, with "Use this reading". */
+  source?: ReadingSource;
 }
 
-export function ReadingEntry({ step, value, onChange, onSubmit, disabled }: ReadingEntryProps) {
+export function ReadingEntry({ step, value, onChange, onSubmit, disabled, source }: ReadingEntryProps) {
   const id = useId();
   const parsed = value.text.trim() === '' ? null : parseEntry(step, value);
   const signed = step.quantity === 'vdc' || step.quantity === 'udc';
@@ -109,16 +122,40 @@ export function ReadingEntry({ step, value, onChange, onSubmit, disabled }: Read
             )}
           </p>
         </div>
-        <NumericKeypad
-          disabled={disabled}
-          fractions={step.quantity === 'length'}
-          negative={signed}
-          onOverRange={ohms ? () => setText(OVER_RANGE_ENTRY) : undefined}
-          // The field is not focused from the keypad: that would pop up the tablet's own keyboard.
-          // A digit after "OL" starts a number again rather than making "OL5".
-          onKey={(k) => setText((parsed?.ok && parsed.overRange ? '' : value.text) + k)}
-          onBackspace={() => setText(value.text.slice(0, -1))}
-        />
+        {source ? (
+          <div className="card space-y-3" data-testid="reading-source">
+            <p className="label text-base">From the bench</p>
+            <p className="text-base">Measure {source.hint} on the schematic: the reading fills this step.</p>
+            {source.reading ? (
+              <>
+                <p className="font-mono text-2xl font-semibold" data-testid="source-reading">
+                  {source.reading.label}
+                </p>
+                <button
+                  type="button"
+                  className="btn-secondary w-full"
+                  disabled={disabled}
+                  onClick={() => onChange({ text: source.reading!.text, unit: source.reading!.unit })}
+                >
+                  Use this reading
+                </button>
+              </>
+            ) : (
+              <p className="text-base text-muted">No reading there yet.</p>
+            )}
+          </div>
+        ) : (
+          <NumericKeypad
+            disabled={disabled}
+            fractions={step.quantity === 'length'}
+            negative={signed}
+            onOverRange={ohms ? () => setText(OVER_RANGE_ENTRY) : undefined}
+            // The field is not focused from the keypad: that would pop up the tablet's own keyboard.
+            // A digit after "OL" starts a number again rather than making "OL5".
+            onKey={(k) => setText((parsed?.ok && parsed.overRange ? '' : value.text) + k)}
+            onBackspace={() => setText(value.text.slice(0, -1))}
+          />
+        )}
       </div>
       <div ref={gaugeRef} className="scroll-mb-4">
         {parsed?.ok &&

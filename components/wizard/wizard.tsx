@@ -38,7 +38,7 @@ import { FindingScreen } from '@/components/wizard/finding-screen';
 import { IgnitionTimeline } from '@/components/wizard/ignition-timeline';
 import { PathSoFar } from '@/components/wizard/path-so-far';
 import { ProcedureChecklist } from '@/components/wizard/procedure-checklist';
-import { parseEntry, ReadingEntry, type ReadingValue } from '@/components/wizard/reading-entry';
+import { parseEntry, ReadingEntry, type ReadingSource, type ReadingValue } from '@/components/wizard/reading-entry';
 import { EnergyBadge, TestPoints, WhyThisStep } from '@/components/wizard/step-parts';
 import { SyncStatus } from '@/components/wizard/sync-status';
 import { UndoLast } from '@/components/wizard/undo-last';
@@ -48,6 +48,23 @@ export interface WizardActions {
   submitAnswer: (input: unknown) => Promise<ActionResult<AnswerResult>>;
   undoAnswer: (input: unknown) => Promise<ActionResult<DiagnosisViewOut>>;
   escalate: (input: unknown) => Promise<ActionResult<DiagnosisViewOut>>;
+}
+
+/**
+ * Answers from beside the wizard (a practice diagnosis on the bench): a measure step's reading from
+ * the bench, filled into the step as it is taken, and an inspect step's look, which preselects the
+ * choice the result maps to. A source that answers null for a step leaves its keypad and choices as they are.
+ */
+export interface StepSources {
+  reading?: (step: MeasureStep) => ReadingSource | null;
+  observe?: (step: InspectStep) => ObserveSource | null;
+}
+
+export interface ObserveSource {
+  /** What the look is, in words ("the spark, during the trial for ignition"). */
+  label: string;
+  /** Looks on the bench; answers the choice the result maps to (null: none of them) and the result in words. */
+  run: () => Promise<{ choice: string | null; text: string }>;
 }
 
 /** A save that has not answered in this time is given up and retried (the server action has no timeout of its own). */
@@ -101,6 +118,10 @@ export interface WizardProps {
   unit?: UnitFacts;
   /** Where the unit record can be corrected, for those who may (technicians and up). */
   correctUnitHref?: string | null;
+  /** Readings and looks from beside the wizard (the bench of a practice diagnosis). */
+  sources?: StepSources;
+  /** A walk of no service call (a practice diagnosis on the bench): nobody to escalate to, no photos to take. */
+  practice?: boolean;
 }
 
 const queueKey = (id: string) => `pg-wizard-queue:${id}`;
@@ -146,6 +167,8 @@ export function Wizard({
   viewerRole,
   unit,
   correctUnitHref,
+  sources,
+  practice = false,
 }: WizardProps) {
   // The server's view as last seen: the page's, then what an undo or a reload answered.
   const [view, setView] = useState(initialView);
@@ -220,10 +243,10 @@ export function Wizard({
   const phase = phaseOf(version, ctx.stepId);
   const escalated = view.status === 'escalated';
   const readings = latestReadings([...ctx.saved, ...ctx.pending]);
-  const canEscalate = !escalated && phase !== 'done' && view.callStatus !== 'closed' && view.callStatus !== 'referred';
+  const canEscalate = !practice && !escalated && phase !== 'done' && view.callStatus !== 'closed' && view.callStatus !== 'referred';
   const footer = (
     <div className="space-y-4">
-      <PathSoFar items={items} callId={callId} />
+      <PathSoFar items={items} callId={practice ? undefined : callId} />
       {correctUnitHref && items.some((i) => i.kind === 'fact') && (
         <p className="text-base text-muted">
           Some answers came from the unit record.{' '}
@@ -312,6 +335,7 @@ export function Wizard({
             transformerVa={transformerVa}
             footer={footer}
             initial={refusal ? { text: refusal.text ?? '', unit: refusal.unit ?? '' } : null}
+            sources={sources}
             onAnswer={(answer) => send({ type: 'answer.submit', answer: { ...answer, clientId: crypto.randomUUID() } })}
           />
         </>
@@ -385,6 +409,7 @@ interface StepScreenProps {
   transformerVa: number | null;
   initial: ReadingValue | null;
   footer: React.ReactNode;
+  sources?: StepSources;
   onAnswer: (answer: {
     stepId: string;
     text?: string;
@@ -407,6 +432,7 @@ function StepScreen({
   transformerVa,
   initial,
   footer,
+  sources,
   onAnswer,
 }: StepScreenProps) {
   const procedure = /^(lock-out|gas-off|gas-on|re-energize)(\+(lock-out|gas-off|gas-on|re-energize))*--/.test(step.id);
@@ -428,10 +454,11 @@ function StepScreen({
           displayUnits={displayUnits}
           transformerVa={transformerVa}
           initial={initial}
+          source={sources?.reading?.(step) ?? null}
           onAnswer={onAnswer}
         />
       )}
-      {step.kind === 'inspect' && <InspectBody step={step} onAnswer={onAnswer} />}
+      {step.kind === 'inspect' && <InspectBody step={step} observe={sources?.observe?.(step) ?? null} onAnswer={onAnswer} />}
       {step.kind === 'action' && (
         <ProcedureChecklist
           items={step.checklist}
@@ -453,6 +480,7 @@ function MeasureBody({
   displayUnits,
   transformerVa,
   initial,
+  source,
   onAnswer,
 }: {
   step: MeasureStep;
@@ -461,12 +489,19 @@ function MeasureBody({
   displayUnits: UnitSystem;
   transformerVa: number | null;
   initial: ReadingValue | null;
+  source: ReadingSource | null;
   onAnswer: StepScreenProps['onAnswer'];
 }) {
   const [value, setValue] = useState<ReadingValue>(() => ({
     text: initial?.text ?? '',
     unit: initial?.unit || displayUnitFor(step.quantity, displayUnits),
   }));
+  // A new reading from the source fills the step (once each: what is typed over it stays).
+  const [filled, setFilled] = useState<string | null>(null);
+  if (source?.reading && source.reading.key !== filled) {
+    setFilled(source.reading.key);
+    setValue({ text: source.reading.text, unit: source.reading.unit });
+  }
   const parsed = value.text.trim() === '' ? null : parseEntry(step, value);
   // A band that takes no reading (leads reversed): say so, and measure again.
   const askAgain = parsed?.ok && !parsed.overRange ? findBand(step.bands, parsed.value)?.band.askAgain : undefined;
@@ -479,7 +514,7 @@ function MeasureBody({
   return (
     <>
       <TestPoints step={step} />
-      <ReadingEntry step={step} value={value} onChange={setValue} onSubmit={save} />
+      <ReadingEntry step={step} value={value} onChange={setValue} onSubmit={save} source={source ?? undefined} />
       {askAgain && (
         <p role="alert" className="rounded-lg border-2 border-ink bg-sunken px-4 py-3 text-lg font-semibold" data-testid="ask-again">
           <span aria-hidden>↻ </span>
@@ -498,12 +533,44 @@ function MeasureBody({
   );
 }
 
-function InspectBody({ step, onAnswer }: { step: InspectStep; onAnswer: StepScreenProps['onAnswer'] }) {
+function InspectBody({
+  step,
+  observe,
+  onAnswer,
+}: {
+  step: InspectStep;
+  observe?: ObserveSource | null;
+  onAnswer: StepScreenProps['onAnswer'];
+}) {
   const [choice, setChoice] = useState<string | null>(null);
   const [note, setNote] = useState('');
+  const [look, setLook] = useState<{ busy: boolean; text: string | null; error: string | null }>({ busy: false, text: null, error: null });
+  const runLook = async () => {
+    if (!observe) return;
+    setLook({ busy: true, text: null, error: null });
+    try {
+      const seen = await observe.run();
+      if (seen.choice) setChoice(seen.choice);
+      setLook({ busy: false, text: seen.text, error: null });
+    } catch (e) {
+      setLook({ busy: false, text: null, error: (e as Error).message });
+    }
+  };
   const noteMissing = Boolean(step.note?.required) && note.trim() === '';
   return (
     <>
+      {observe && (
+        <div className="card space-y-2" data-testid="observe-source">
+          <p className="text-base text-muted">Look on the bench: {observe.label}.</p>
+          <button type="button" className="btn-secondary" disabled={look.busy} onClick={runLook}>
+            {look.busy ? 'Looking…' : 'Observe'}
+          </button>
+          <p aria-live="polite" className="empty:hidden text-base" data-testid="observe-result">
+            {look.text}
+            {look.error && <span className="field-error mt-0">{look.error}</span>}
+          </p>
+        </div>
+      )}
       <div role="radiogroup" aria-label={step.title} className="grid gap-3 sm:grid-cols-2">
         {step.choices.map((c) => {
           const checked = choice === c.value;

@@ -14,6 +14,7 @@ export type PracticeEvent =
   | { kind: 'measure'; time: number; mode: 'vac' | 'vdc' | 'ohm'; a: string; b: string; value: number | null }
   | { kind: 'measure'; time: number; mode: 'ohm'; lead: string; value: number | null }
   | { kind: 'measure'; time: number; mode: 'udc'; series: string; value: number | null }
+  | { kind: 'measure'; time: number; mode: 'gauge'; gauge: string; value: number | null }
   | { kind: 'observe'; time: number; what: string; result: string };
 
 export interface ScoreLine {
@@ -125,15 +126,19 @@ export function safetyLapses(events: readonly PracticeEvent[]): string[] {
       continue;
     }
     const handled =
-      e.kind === 'measure' && e.mode === 'ohm'
-        ? 'lead' in e
-          ? `Resistance of the ${e.lead}`
-          : ROD_POINTS.has(e.a) || ROD_POINTS.has(e.b)
-            ? `Resistance of ${e.a}–${e.b}`
-            : null
-        : e.kind === 'observe' && HANDLING_LOOKS.has(e.what)
-          ? `A look at the ${e.what}`
-          : null;
+      e.kind === 'measure' && e.mode === 'gauge'
+        ? e.gauge === 'spark-gap'
+          ? 'The spark gap gauged'
+          : null
+        : e.kind === 'measure' && e.mode === 'ohm'
+          ? 'lead' in e
+            ? `Resistance of the ${e.lead}`
+            : ROD_POINTS.has(e.a) || ROD_POINTS.has(e.b)
+              ? `Resistance of ${e.a}–${e.b}`
+              : null
+          : e.kind === 'observe' && HANDLING_LOOKS.has(e.what)
+            ? `A look at the ${e.what}`
+            : null;
     if (handled && (powered || !verifiedSincePowerOff)) {
       lapses.push(
         `${handled} at ${formatClock(e.time)} without the power off and verified dead first: the rods and leads are handled for it.`,

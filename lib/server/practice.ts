@@ -2,8 +2,12 @@ import 'server-only';
 import { appendBenchEvent, createBenchSession, getBenchSession, listBenchEvents, type BenchEventRecord } from '@/db/bench';
 import { db } from '@/db/knex';
 import {
+  appendPracticeAnswer,
   assignScenario,
   createAttempt,
+  deleteLastPracticeAnswer,
+  getPublishedVersionId,
+  listPracticeAnswers,
   createScenario,
   finishAttempt,
   getAssignment,
@@ -15,7 +19,10 @@ import {
   listAwaitingSignOff,
   listScenarios,
   type Attempt,
+  type PracticeAnswerRecord,
 } from '@/db/practice';
+import { getTreeVersion } from '@/db/trees';
+import { evaluateReading } from '@/lib/bands';
 import { AppError } from '@/lib/errors';
 import type { Scope } from '@/lib/policy';
 import {
@@ -28,13 +35,21 @@ import {
   type BenchAction,
   type MeasureRequest,
   type ObservationKind,
+  GAUGES,
+  type GaugeId,
 } from '@/lib/bench';
 import { findingChoices, findingsWithTags, readingsToFinding } from '@/lib/practice/findings';
 import { scoreAttempt, type PracticeEvent } from '@/lib/practice/scoring';
+import { observeText, probeText, readingAnswers, sameReading } from '@/lib/practice/walk';
 import type { CurrentUser } from '@/lib/server/guard';
 import { notify } from '@/lib/server/notify';
 import { authorize } from '@/lib/server/operation';
-import { DEFAULT_TREE_GRAPH } from '@/lib/trees/default-tree';
+import { DEFAULT_TREE, DEFAULT_TREE_GRAPH } from '@/lib/trees/default-tree';
+import type { InspectStep, Step, TreeGraph, TreeVersion, UnitFacts } from '@/lib/trees/schema';
+import { parseReading } from '@/lib/units';
+import type { AnswerInput } from '@/lib/validations/field';
+import { apiAnswerSchema, type ApiAnswer, type DiagnosisViewOut } from '@/lib/validations/api';
+import { currentStep, phaseOf, replayAnswers, stateIdOf, type DiagnosisAnswer } from '@/machines/diagnosis-machine';
 import {
   assignmentSchema,
   practiceOverviewSchema,
@@ -42,6 +57,7 @@ import {
   type AttemptRow,
   type createScenarioSchema,
   type FindingChoice,
+  type PracticeAnswerResult,
   type ProgressOutput,
   type UnitProfile,
 } from '@/lib/validations/practice';
@@ -73,6 +89,7 @@ export function toPracticeEvent(e: Pick<BenchEventRecord, 'kind' | 'payload' | '
   }
   if (e.kind === 'observe') return [{ kind: 'observe', time, what: str(p.what), result: str(e.result.result) }];
   const value = num(e.result.value);
+  if (p.mode === 'gauge') return [{ kind: 'measure', time, mode: 'gauge', gauge: str(p.gauge), value }];
   if (p.mode === 'udc') return [{ kind: 'measure', time, mode: 'udc', series: str(p.series), value }];
   if (p.mode === 'ohm' && typeof p.lead === 'string') return [{ kind: 'measure', time, mode: 'ohm', lead: p.lead, value }];
   if (p.mode === 'vac' || p.mode === 'vdc' || p.mode === 'ohm')
@@ -86,6 +103,32 @@ async function benchEvents({ companyId, sessionId }: { companyId: string; sessio
 
 const FINDINGS = findingChoices(DEFAULT_TREE_GRAPH);
 const findingById = new Map(FINDINGS.map((f) => [f.id, f]));
+
+// The tree versions attempts walk, by id: a published version never changes, so its graph is kept.
+const walkedGraphs = new Map<string, { title: string; version: number; graph: TreeGraph }>();
+
+async function walkedVersion(companyId: string, id: string) {
+  const hit = walkedGraphs.get(id);
+  if (hit) return hit;
+  const record = await getTreeVersion({ companyId, id });
+  const entry = { title: record.title, version: record.version, graph: record.graph };
+  walkedGraphs.set(id, entry);
+  return entry;
+}
+
+/** The graph an attempt's findings are of: its walked version's, else the built-in tree's. */
+const graphOfAttempt = (a: Pick<Attempt, 'treeVersionId'>): TreeGraph =>
+  (a.treeVersionId ? walkedGraphs.get(a.treeVersionId)?.graph : undefined) ?? DEFAULT_TREE_GRAPH;
+
+async function loadWalked(companyId: string, attempts: readonly Attempt[]) {
+  const ids = [...new Set(attempts.map((a) => a.treeVersionId).filter((v): v is string => v !== null))];
+  await Promise.all(ids.map((id) => walkedVersion(companyId, id).catch(() => null)));
+}
+
+function findingTitle(graph: TreeGraph, id: string): FindingChoice | null {
+  const step = graph.steps.find((st) => st.id === id && st.kind === 'finding');
+  return step ? { id: step.id, title: step.title } : (findingById.get(id) ?? null);
+}
 
 function faultOf(id: string) {
   const fault = getFault(id);
@@ -138,12 +181,14 @@ export async function practiceOverview({ scope }: { scope: Scope }) {
     listApprentices({ companyId: scope.companyId }),
     listAttempts({ scope }),
   ]);
+  await loadWalked(scope.companyId, attempts);
   return { scenarios, apprentices, faults: practiceFaults(), attempts: attempts.map(toRow) };
 }
 
 export async function scenarioDetail({ scope, id }: { scope: Scope; id: string }) {
   const scenario = await getScenario({ companyId: scope.companyId, id });
   const [assignments, attempts] = await Promise.all([listAssignments({ scope, scenarioId: id }), listAttempts({ scope, scenarioId: id })]);
+  await loadWalked(scope.companyId, attempts);
   return {
     scenario,
     faults: scenario.faultIds.map(faultOf),
@@ -183,16 +228,19 @@ export async function startAttempt({ user, scope, assignmentId }: { user: Curren
   }
   const faultId = assignment.faultIds[Math.floor(Math.random() * assignment.faultIds.length)];
   const benchSessionId = await openBenchSession({ user, faultId, unit: assignment.unit, seed: Math.floor(Math.random() * 2 ** 31) });
-  const id = await createAttempt({ companyId: user.companyId, assignment, benchSessionId, faultId });
+  // The walk is the company's published no-heat tree, as a real diagnosis of the symptom would be.
+  const treeVersionId = await getPublishedVersionId({ companyId: user.companyId, slug: DEFAULT_TREE.slug });
+  const id = await createAttempt({ companyId: user.companyId, assignment, benchSessionId, faultId, treeVersionId });
   return { id, benchSessionId };
 }
 
 /** The findings of the built-in tree that isolate a fault: those carrying every one of its expected tags. */
-function expectedFindingsOf(faultId: string): FindingChoice[] {
+function expectedFindingsOf(faultId: string, graph: TreeGraph = DEFAULT_TREE_GRAPH): FindingChoice[] {
   const fault = getFault(faultId);
   if (!fault) return [];
-  const tagged = findingsWithTags(DEFAULT_TREE_GRAPH, fault.expectedFindingTags);
+  const tagged = findingsWithTags(graph, fault.expectedFindingTags);
   if (tagged.length) return tagged;
+  if (graph !== DEFAULT_TREE_GRAPH) return expectedFindingsOf(faultId);
   // A tree whose findings do not carry the fault's own tag yet: the finding named after the fault.
   const named = findingById.get(`f-${fault.id}`);
   return named ? [named] : [];
@@ -200,8 +248,9 @@ function expectedFindingsOf(faultId: string): FindingChoice[] {
 
 function toRow(a: Attempt): AttemptRow {
   const fault = faultOf(a.faultId);
-  const finding = a.findingStepId ? (findingById.get(a.findingStepId) ?? { id: a.findingStepId, title: a.findingStepId }) : null;
-  const expected = expectedFindingsOf(a.faultId);
+  const graph = graphOfAttempt(a);
+  const finding = a.findingStepId ? (findingTitle(graph, a.findingStepId) ?? { id: a.findingStepId, title: a.findingStepId }) : null;
+  const expected = expectedFindingsOf(a.faultId, graph);
   return {
     id: a.id,
     scenarioId: a.scenarioId,
@@ -212,7 +261,12 @@ function toRow(a: Attempt): AttemptRow {
     faultTitle: fault.title,
     findingStepId: a.findingStepId,
     findingTitle: finding?.title ?? null,
-    right: a.findingStepId ? expected.some((f) => f.id === a.findingStepId) : null,
+    // The score's own finding line says whether it was right (scored against the attempt's tree).
+    right: a.score
+      ? a.score.lines.some((l) => l.key === 'finding' && l.points > 0)
+      : a.findingStepId
+        ? expected.some((f) => f.id === a.findingStepId)
+        : null,
     total: a.score?.total ?? null,
     max: a.score?.max ?? null,
     seconds: a.score?.seconds ?? null,
@@ -228,6 +282,9 @@ export async function attemptDetail({ user, scope, id }: { user: CurrentUser; sc
   const reveal = a.finishedAt !== null || user.role !== 'apprentice';
   const events = reveal ? await benchEvents({ companyId: scope.companyId, sessionId: a.benchSessionId }) : [];
   const fault = faultOf(a.faultId);
+  const walked = a.treeVersionId ? await walkedVersion(scope.companyId, a.treeVersionId) : null;
+  const graph = graphOfAttempt(a);
+  const path = walked ? (await listPracticeAnswers({ companyId: scope.companyId, attemptId: a.id })).map(toApiAnswer) : [];
   return {
     id: a.id,
     scenarioId: a.scenarioId,
@@ -238,12 +295,13 @@ export async function attemptDetail({ user, scope, id }: { user: CurrentUser; sc
     benchSessionId: a.benchSessionId,
     startedAt: a.startedAt.toISOString(),
     finishedAt: a.finishedAt ? a.finishedAt.toISOString() : null,
-    findings: FINDINGS,
-    finding: a.findingStepId ? (findingById.get(a.findingStepId) ?? null) : null,
+    findings: walked ? findingChoices(graph) : FINDINGS,
+    finding: a.findingStepId ? findingTitle(graph, a.findingStepId) : null,
     fault: reveal ? fault : null,
-    expectedFindings: reveal ? expectedFindingsOf(a.faultId) : [],
+    expectedFindings: reveal ? expectedFindingsOf(a.faultId, graph) : [],
     events,
     score: a.score,
+    walk: walked ? { treeVersionId: a.treeVersionId!, title: walked.title, version: walked.version, path } : null,
   };
 }
 
@@ -262,6 +320,8 @@ export async function finishMyAttempt({
   const a = await getAttempt({ scope, id });
   if (a.apprentice.id !== user.id) throw new AppError('forbidden', 'Only the apprentice running the attempt reports its finding.');
   if (a.finishedAt) throw new AppError('conflict', 'This attempt is already finished and scored.');
+  if (a.treeVersionId)
+    throw new AppError('bad_request', 'This attempt walks the fault tree: it ends when the walk reaches a finding, not by picking one.');
   const chosen = findingById.get(findingStepId);
   if (!chosen) {
     throw new AppError('bad_request', 'That is not one of the findings to choose from.', {
@@ -292,6 +352,7 @@ export async function apprenticeProgress({ scope, apprenticeId }: { scope: Scope
     listAttempts({ scope, apprenticeId }),
     listAwaitingSignOff({ companyId: scope.companyId, apprenticeId }),
   ]);
+  await loadWalked(scope.companyId, attempts);
   const rows = attempts.map(toRow);
   const isolated = new Map<string, { faultId: string; faultTitle: string; best: number; times: number }>();
   for (const r of rows) {
@@ -324,6 +385,7 @@ function replay(bench: Bench, events: readonly BenchEventRecord[]) {
   for (const e of events) {
     const p = e.payload;
     if (e.kind === 'action') bench.act(p.action as BenchAction, typeof p.seconds === 'number' ? p.seconds : undefined);
+    else if (e.kind === 'measure' && p.mode === 'gauge') bench.gauge(p.gauge as GaugeId);
     else if (e.kind === 'measure') bench.measure(p as unknown as MeasureRequest);
     else bench.observe(p.what as ObservationKind);
   }
@@ -365,8 +427,16 @@ export function attemptBenchAct(ctx: { user: CurrentUser; scope: Scope; id: stri
   });
 }
 
-export function attemptBenchMeasure(ctx: { user: CurrentUser; scope: Scope; id: string }, input: MeasureRequest) {
+export function attemptBenchMeasure(
+  ctx: { user: CurrentUser; scope: Scope; id: string },
+  input: MeasureRequest | { mode: 'gauge'; gauge: string },
+) {
   return onAttemptBench(ctx, (bench) => {
+    if (input.mode === 'gauge') {
+      if (!(input.gauge in GAUGES)) throw new BenchRefusal('invalid', `The bench has no "${input.gauge}" gauge.`);
+      const answer = bench.gauge(input.gauge as GaugeId);
+      return { step: { kind: 'measure', payload: { ...input }, result: { ...answer }, simTime: answer.time }, answer };
+    }
     const answer = bench.measure(input);
     return { step: { kind: 'measure', payload: { ...input }, result: { ...answer }, simTime: answer.time }, answer };
   });
@@ -376,5 +446,367 @@ export function attemptBenchObserve(ctx: { user: CurrentUser; scope: Scope; id: 
   return onAttemptBench(ctx, (bench) => {
     const answer = bench.observe(input.what as ObservationKind);
     return { step: { kind: 'observe', payload: { what: input.what }, result: { ...answer }, simTime: answer.time }, answer };
+  });
+}
+
+// ── The walk of a practice attempt: the real wizard's answers, checked against the bench ─────────
+// A practice diagnosis walks the attempt's tree version in the wizard. Its answers are stored here,
+// never trusted from the client: each is replayed through the diagnosis machine (the same one a
+// real visit runs), a reading must be one the attempt's bench really gave at the step's probe (the
+// function and points; without a probe, the meter function), a look on an inspect step that
+// observes must be the choice the bench's last observation maps to, and an energy procedure that
+// takes the power off is confirmed only with the bench powered off. Reaching a finding ends the
+// attempt and scores it, with the walk's finding as the apprentice's.
+
+const asDiagnosisAnswer = (a: ApiAnswer): DiagnosisAnswer => ({
+  stepId: a.stepId,
+  ...(a.overRange ? { overRange: true } : a.value !== null ? { value: a.value } : {}),
+  ...(a.choice !== null ? { choice: a.choice } : {}),
+  ...(a.confirmed !== null ? { confirmed: a.confirmed } : {}),
+});
+
+function toApiAnswer(r: PracticeAnswerRecord): ApiAnswer {
+  return apiAnswerSchema.parse({ ...r.answer, seq: r.seq + 1, at: r.createdAt });
+}
+
+const refuse = (message: string, field = 'text') => new AppError('bad_request', message, { fieldErrors: { [field]: [message] } });
+
+const unitFacts = (u: UnitProfile): UnitFacts => ({ ignition: u.ignition, fuel: u.fuel, controlSupply: u.controlSupply, draft: u.draft });
+
+function benchPowered(events: readonly BenchEventRecord[]): boolean {
+  let powered = false;
+  for (const e of events) {
+    if (e.kind !== 'action') continue;
+    if (e.payload.action === 'power-on') powered = true;
+    if (e.payload.action === 'power-off') powered = false;
+  }
+  return powered;
+}
+
+/** The walk of a running attempt, its bench locked: everything an answer or an undo is judged on. */
+async function openWalk({ user, scope, id }: { user: CurrentUser; scope: Scope; id: string }, trx: Parameters<typeof getAttempt>[1]) {
+  const a = await getAttempt({ scope, id }, trx);
+  if (a.apprentice.id !== user.id) throw new AppError('forbidden', 'Only the apprentice running the attempt answers its steps.');
+  if (a.finishedAt) throw new AppError('conflict', 'This attempt is finished and scored: its walk is closed.');
+  if (!a.treeVersionId)
+    throw new AppError('bad_request', 'This attempt has no fault tree to walk: report the finding you reached instead.');
+  const own: Scope = { companyId: user.companyId, userId: user.id, reach: 'own' };
+  // The bench session's row lock lines answers up with the bench's own events.
+  const session = await getBenchSession({ scope: own, id: a.benchSessionId, lock: true }, trx);
+  const [events, answers, walked] = await Promise.all([
+    listBenchEvents({ companyId: user.companyId, sessionId: session.id }, trx),
+    listPracticeAnswers({ companyId: user.companyId, attemptId: a.id }, trx),
+    walkedVersion(user.companyId, a.treeVersionId),
+  ]);
+  const version: TreeVersion = { id: a.treeVersionId, version: walked.version, graph: walked.graph };
+  return { a, session, events, answers, walked, version };
+}
+
+function walkView(
+  a: Attempt,
+  walked: { title: string; version: number },
+  path: ApiAnswer[],
+  found: { findingId: string | null; energy: { electric: string; gas: string } },
+): DiagnosisViewOut {
+  return {
+    id: a.id,
+    callId: `practice-${a.id}`,
+    status: found.findingId ? 'found' : 'in_progress',
+    treeVersionId: a.treeVersionId!,
+    tree: { title: walked.title, version: walked.version },
+    startedBy: { id: a.apprentice.id, name: a.apprentice.name, role: 'apprentice' },
+    signedOff: null,
+    energy: found.energy.electric === 'off' ? 'locked-out' : 'energized',
+    gas: found.energy.gas === 'off' ? 'off' : 'on',
+    phase: 'walk',
+    escalation: null,
+    path,
+    current: null,
+    finding: null,
+    contradictions: [],
+    callStatus: 'diagnosing',
+  } as DiagnosisViewOut;
+}
+
+/** The view the wizard starts from on a running attempt's page (its answers so far). */
+export async function attemptWalkView({ user, scope, id }: { user: CurrentUser; scope: Scope; id: string }) {
+  const a = await getAttempt({ scope, id });
+  if (!a.treeVersionId) return null;
+  const walked = await walkedVersion(scope.companyId, a.treeVersionId);
+  const version: TreeVersion = { id: a.treeVersionId, version: walked.version, graph: walked.graph };
+  const path = (await listPracticeAnswers({ companyId: scope.companyId, attemptId: a.id })).map(toApiAnswer);
+  const unit = unitFacts(a.unit);
+  const replay = replayAnswers(version, path.map(asDiagnosisAnswer), { unit });
+  return {
+    version,
+    unit,
+    view: walkView(a, walked, path, { findingId: replay.snapshot.context.findingId, energy: replay.snapshot.context.energy }),
+    mine: a.apprentice.id === user.id,
+  };
+}
+
+/** The bench event a reading or a look was taken from, judged against the step (or why it is refused). */
+function benchEvidence(
+  step: Step,
+  value: number | null,
+  choice: string | null,
+  events: readonly BenchEventRecord[],
+  since: number,
+): { benchSeq: number | null } {
+  const fresh = events.filter((e) => e.seq > since);
+  if (step.kind === 'measure') {
+    const taken = fresh.filter((e) => e.kind === 'measure' && readingAnswers(step, e.payload));
+    if (taken.length === 0)
+      throw refuse(`Take this reading on the bench first (${probeText(step)}): the step is answered with what the bench shows.`);
+    // The latest matching reading first: the one just taken for this step.
+    const hit = [...taken].reverse().find((e) => sameReading(value ?? Number.POSITIVE_INFINITY, num(e.result.value)));
+    if (!hit) {
+      const last = num(taken[taken.length - 1].result.value);
+      throw refuse(
+        `The bench never showed that reading: ${probeText(step)} it read ${last === null ? 'OL' : `${last} ${str(taken[taken.length - 1].result.unit)}`}. Enter what the bench shows.`,
+      );
+    }
+    return { benchSeq: hit.seq };
+  }
+  if (step.kind === 'inspect' && step.observe) {
+    // The first look, then the further ones in order: the first result that maps to a choice decides.
+    let first: BenchEventRecord | undefined;
+    for (const observation of [step.observe, ...(step.observeMore ?? [])]) {
+      const look = fresh.filter((e) => e.kind === 'observe' && e.payload.what === observation.what).at(-1);
+      if (!look) {
+        if (!first)
+          throw refuse(
+            `Observe it on the bench first (${observeText(observation)}): the step is answered by what the bench shows.`,
+            'choice',
+          );
+        break;
+      }
+      first ??= look;
+      const result = str(look.result.result);
+      const mapped = observation.choices[result];
+      if (mapped === undefined) continue;
+      if (mapped !== choice) {
+        const label = step.choices.find((c) => c.value === mapped)?.label ?? mapped;
+        throw refuse(
+          `The bench showed “${result}” when you looked at the ${observation.what}, which is “${label}” on this step. Look again if the unit has changed.`,
+          'choice',
+        );
+      }
+      return { benchSeq: look.seq };
+    }
+    return { benchSeq: first!.seq };
+  }
+  return { benchSeq: null };
+}
+
+/** One answer of the apprentice's walk: checked, stored, and at a finding the attempt scored. */
+export async function answerMyAttempt({
+  user,
+  scope,
+  id,
+  input,
+}: {
+  user: CurrentUser;
+  scope: Scope;
+  id: string;
+  input: AnswerInput;
+}): Promise<PracticeAnswerResult> {
+  return db.transaction(async (trx) => {
+    const { a, events, answers, version } = await openWalk({ user, scope, id }, trx);
+    const path = answers.map(toApiAnswer);
+    const unit = unitFacts(a.unit);
+    const before = replayAnswers(version, path.map(asDiagnosisAnswer), { unit });
+    const energyBefore = before.snapshot.context.energy;
+
+    // A save sent again (the tablet retried): the stored answer, nothing changes.
+    const again = answers.find((r) => r.clientId === input.clientId);
+    if (again) {
+      return {
+        answer: toApiAnswer(again),
+        next: null,
+        finding: null,
+        diagnosis: diagnosisOf(before.snapshot.context),
+        auto: [],
+        scored: false,
+      };
+    }
+
+    const step = currentStep(before.snapshot);
+    const stateId = stateIdOf(before.snapshot.value)!;
+    if (input.stepId !== stateId) throw refuse(`The walk is at “${step.title}”, not at “${input.stepId}”. Reload the page.`, 'stepId');
+    if (phaseOf(version, stateId) !== 'walk' && phaseOf(version, stateId) !== 'procedure')
+      throw refuse('The walk has reached its finding: the attempt is being scored.', 'stepId');
+
+    const base: ApiAnswer = {
+      id: input.clientId,
+      clientId: input.clientId,
+      seq: answers.length + 1,
+      stepId: step.id,
+      stepTitle: step.title,
+      kind: step.kind,
+      text: null,
+      value: null,
+      unit: null,
+      quantity: null,
+      band: null,
+      bandIndex: null,
+      verdict: null,
+      choice: null,
+      choiceLabel: null,
+      confirmed: null,
+      overRange: false,
+      auto: false,
+      at: new Date().toISOString(),
+    };
+    let verdict: PracticeAnswerResult['verdict'];
+    const since = Math.max(-1, ...answers.map((r) => r.benchSeq ?? -1));
+    let benchSeq: number | null = null;
+
+    if (step.kind === 'measure') {
+      let value: number;
+      if (input.overRange) {
+        if (step.quantity !== 'ohm') throw refuse('OL (over range) is only for a resistance reading. Enter the value the meter shows.');
+        value = Number.POSITIVE_INFINITY;
+        Object.assign(base, { text: 'OL', overRange: true, unit: 'Ω' });
+      } else {
+        const parsed = parseReading(step.quantity, input.text ?? '', input.unit);
+        if (!parsed.ok) throw refuse(parsed.message);
+        value = parsed.value;
+        Object.assign(base, { text: input.text ?? null, value, unit: parsed.unit });
+      }
+      let evaluation;
+      try {
+        evaluation = evaluateReading(step, value, before.snapshot.context.readings);
+      } catch {
+        throw refuse(`No band of “${step.title}” holds this reading.`);
+      }
+      if (evaluation.band.askAgain) throw refuse(evaluation.band.askAgain);
+      ({ benchSeq } = benchEvidence(step, Number.isFinite(value) ? value : null, null, events, since));
+      Object.assign(base, {
+        quantity: step.quantity,
+        band: evaluation.band.label,
+        bandIndex: evaluation.index,
+        verdict: evaluation.verdict,
+      });
+      verdict = {
+        band: evaluation.band.label,
+        outcome: evaluation.outcome ?? '',
+        position: evaluation.position,
+        verdict: evaluation.verdict,
+        value: Number.isFinite(value) ? value : Number.MAX_VALUE,
+      };
+    } else if (step.kind === 'inspect') {
+      const choice = step.choices.find((c) => c.value === input.choice);
+      if (!choice) throw refuse(`Choose one of: ${step.choices.map((c) => c.label).join(', ')}.`, 'choice');
+      if (step.note?.required && !input.note?.trim()) throw refuse(`${step.note.label}: write what you saw.`, 'note');
+      ({ benchSeq } = benchEvidence(step as InspectStep, null, choice.value, events, since));
+      Object.assign(base, { choice: choice.value, choiceLabel: choice.label, text: input.note ?? null });
+    } else if (step.kind === 'action') {
+      if (input.confirmed !== true) throw refuse('Confirm the step once it is done.', 'confirmed');
+      base.confirmed = true;
+    } else {
+      throw refuse(`“${step.title}” is not answered by hand.`, 'stepId');
+    }
+
+    const after = replayAnswers(version, [...path, base].map(asDiagnosisAnswer), { unit });
+    if (!after.ok) throw refuse(after.error, 'stepId');
+    const energyAfter = after.snapshot.context.energy;
+    // The procedure that takes the power off is done on the bench, not only ticked in the wizard.
+    if (energyAfter.electric === 'off' && energyBefore.electric !== 'off' && benchPowered(events))
+      throw refuse(
+        'The bench is still powered: press Power off on the bench and verify it dead before you confirm this step.',
+        'confirmed',
+      );
+
+    const stored = await appendPracticeAnswer(
+      {
+        companyId: user.companyId,
+        attemptId: a.id,
+        seq: answers.length,
+        clientId: input.clientId,
+        stepId: step.id,
+        answer: { ...base, at: undefined },
+        benchSeq,
+      },
+      trx,
+    );
+    const findingId = after.snapshot.context.findingId;
+    let scored = false;
+    if (findingId) {
+      const finding = findingTitle(version.graph, findingId) ?? { id: findingId, title: findingId };
+      await scoreAndFinish({ a, graph: version.graph, chosen: finding, events, scope, trx });
+      scored = true;
+    }
+    return {
+      answer: toApiAnswer(stored),
+      next: null,
+      finding: null,
+      verdict,
+      diagnosis: diagnosisOf(after.snapshot.context),
+      auto: [],
+      scored,
+    };
+  });
+}
+
+function diagnosisOf(ctx: { findingId: string | null; energy: { electric: string; gas: string } }): PracticeAnswerResult['diagnosis'] {
+  return {
+    status: ctx.findingId ? 'found' : 'in_progress',
+    energy: ctx.energy.electric === 'off' ? 'locked-out' : 'energized',
+    gas: ctx.energy.gas === 'off' ? 'off' : 'on',
+    phase: 'walk',
+    contradictions: [],
+  };
+}
+
+async function scoreAndFinish({
+  a,
+  graph,
+  chosen,
+  events,
+  scope,
+  trx,
+}: {
+  a: Attempt;
+  graph: TreeGraph;
+  chosen: FindingChoice;
+  events: readonly BenchEventRecord[];
+  scope: Scope;
+  trx: Parameters<typeof finishAttempt>[1];
+}) {
+  const expected = expectedFindingsOf(a.faultId, graph);
+  const paths = expected.map((f) => readingsToFinding(graph, f.id, unitFacts(a.unit))).filter((n): n is number => n !== null);
+  const finishedAt = new Date();
+  const score = scoreAttempt({
+    events: events.flatMap(toPracticeEvent),
+    chosenFinding: chosen,
+    expectedFindings: expected,
+    shortest: paths.length ? Math.min(...paths) : 0,
+    seconds: (finishedAt.getTime() - a.startedAt.getTime()) / 1000,
+  });
+  await finishAttempt({ scope, id: a.id, findingStepId: chosen.id, score, finishedAt }, trx);
+}
+
+/** Takes back the last answer of the walk (a mis-tap); what was done on the bench stays, and counts. */
+export async function undoMyAnswer({
+  user,
+  scope,
+  id,
+  last,
+}: {
+  user: CurrentUser;
+  scope: Scope;
+  id: string;
+  last?: string;
+}): Promise<DiagnosisViewOut> {
+  return db.transaction(async (trx) => {
+    const { a, answers, walked, version } = await openWalk({ user, scope, id }, trx);
+    const tail = answers[answers.length - 1];
+    if (!tail) throw new AppError('bad_request', 'There is no answer to undo yet.');
+    if (last && tail.clientId !== last) throw new AppError('conflict', 'The walk has moved on since: reload the page.');
+    await deleteLastPracticeAnswer({ companyId: user.companyId, attemptId: a.id, seq: tail.seq }, trx);
+    const path = answers.slice(0, -1).map(toApiAnswer);
+    const replay = replayAnswers(version, path.map(asDiagnosisAnswer), { unit: unitFacts(a.unit) });
+    return walkView(a, walked, path, { findingId: replay.snapshot.context.findingId, energy: replay.snapshot.context.energy });
   });
 }

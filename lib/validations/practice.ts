@@ -2,6 +2,9 @@
 // practice operations answer. Forms and server share the input schemas; the client takes its types
 // from the output schemas (`z.output<…>`).
 import { z } from 'zod';
+import { POINTS } from '@/lib/bench/points';
+import { answerResultSchema, apiAnswerSchema } from '@/lib/validations/api';
+import { answerSchema } from '@/lib/validations/field';
 import { multiLine, objectError, singleLine } from '@/lib/validations/text';
 
 /** A date on the wire, ISO 8601 (a Date on the server). */
@@ -100,11 +103,12 @@ export const practiceEventSchema = z.discriminatedUnion('kind', [
   z.object({
     kind: z.literal('measure'),
     time: z.number(),
-    mode: z.enum(['vac', 'vdc', 'ohm', 'udc']),
+    mode: z.enum(['vac', 'vdc', 'ohm', 'udc', 'gauge']),
     a: z.string().optional(),
     b: z.string().optional(),
     lead: z.string().optional(),
     series: z.string().optional(),
+    gauge: z.string().optional(),
     value: z.number().nullable(),
   }),
   z.object({ kind: z.literal('observe'), time: z.number(), what: z.string(), result: z.string() }),
@@ -203,6 +207,18 @@ export const attemptSchema = z.object({
   expectedFindings: z.array(findingChoiceSchema),
   events: z.array(practiceEventSchema),
   score: scoreSchema.nullable(),
+  /**
+   * The tree version the attempt walks in the wizard and the answers so far; null for an attempt
+   * started without one (its finding is then reported by hand).
+   */
+  walk: z
+    .object({
+      treeVersionId: z.string(),
+      title: z.string(),
+      version: z.number(),
+      path: z.array(apiAnswerSchema),
+    })
+    .nullable(),
 });
 export type AttemptOutput = z.output<typeof attemptSchema>;
 
@@ -226,28 +242,8 @@ export type PracticeOverview = z.output<typeof practiceOverviewSchema>;
 
 // ── The bench API as the bench screen reads it (the contract of issue 9) ────────────────────────
 
-export const BENCH_POINTS = [
-  'line-hot',
-  'line-neutral',
-  'line-ground',
-  'chassis',
-  'xfmr-hot',
-  'xfmr-common',
-  'fuse-out',
-  'stat-w',
-  'limit-out',
-  'rollout-out',
-  'control-common',
-  'inducer-hot',
-  'ps-in',
-  'ps-out',
-  'valve-hot',
-  'valve-common',
-  'spark-rod',
-  'flame-rod',
-  'burner',
-  'ground-lead',
-] as const;
+/** Every circuit point of the bench (lib/bench/points.ts, the bench API's contract and its additions). */
+export const BENCH_POINTS = POINTS;
 export type BenchPoint = (typeof BENCH_POINTS)[number];
 export const SERIES_POINTS = ['flame-rod-lead', 'ground-lead'] as const;
 export type SeriesPoint = (typeof SERIES_POINTS)[number];
@@ -290,9 +286,19 @@ export const attemptMeasureSchema = z.union(
     z.strictObject({ mode: z.enum(['vac', 'vdc', 'ohm']), a: benchPoint, b: benchPoint }),
     z.strictObject({ mode: z.literal('ohm'), lead: benchPoint }),
     z.strictObject({ mode: z.literal('udc'), series: benchPoint }),
+    z.strictObject({ mode: z.literal('gauge'), gauge: benchPoint }),
   ],
-  { error: 'A measurement is { mode: vac | vdc | ohm, a, b }, { mode: ohm, lead } or { mode: udc, series }.' },
+  {
+    error: 'A measurement is { mode: vac | vdc | ohm, a, b }, { mode: ohm, lead }, { mode: udc, series } or { mode: gauge, gauge }.',
+  },
 );
+/** One answer of a practice walk: the wizard's answer (the same fields as a diagnosis's). */
+export const practiceAnswerSchema = answerSchema;
+
+/** What saving a practice answer says: the wizard's answer result, and whether it ended and scored the attempt. */
+export const practiceAnswerResultSchema = answerResultSchema.extend({ scored: z.boolean() });
+export type PracticeAnswerResult = z.output<typeof practiceAnswerResultSchema>;
+
 export const attemptObserveSchema = z.strictObject(
   {
     what: z

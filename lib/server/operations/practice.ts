@@ -2,6 +2,7 @@ import 'server-only';
 import { z } from 'zod';
 import { defineOperation } from '@/lib/server/operation';
 import { noInput, recordId } from '@/lib/server/operations/shared';
+import { diagnosisViewSchema } from '@/lib/validations/api';
 import {
   addScenario,
   apprenticeProgress,
@@ -10,8 +11,10 @@ import {
   attemptBenchObserve,
   attemptBenchState,
   assignToApprentices,
+  answerMyAttempt,
   attemptDetail,
   finishMyAttempt,
+  undoMyAnswer,
   myAssignments,
   practiceOverview,
   scenarioDetail,
@@ -30,6 +33,8 @@ import {
   attemptSchema,
   createScenarioSchema,
   finishAttemptSchema,
+  practiceAnswerResultSchema,
+  practiceAnswerSchema,
   practiceOverviewSchema,
   progressSchema,
   scenarioDetailSchema,
@@ -101,6 +106,26 @@ export const finishAttemptOp = defineOperation({
   input: z.object({ id: recordId, finding: finishAttemptSchema }),
   output: attemptSchema,
   handler: async ({ user, scope, input }) => finishMyAttempt({ user, scope, id: input.id, findingStepId: input.finding.findingStepId }),
+});
+
+// POST /api/practice/attempts/{id}/answers · practiceAnswerAction
+export const answerAttemptOp = defineOperation({
+  name: 'practice.attempts.answer',
+  fieldsUnder: 'answer',
+  input: z.object({ id: recordId, answer: practiceAnswerSchema }),
+  output: practiceAnswerResultSchema,
+  handler: async ({ user, scope, input }) => answerMyAttempt({ user, scope, id: input.id, input: input.answer }),
+});
+
+// DELETE /api/practice/attempts/{id}/answers/last?last={clientId} · practiceUndoAction
+export const undoAttemptAnswerOp = defineOperation({
+  name: 'practice.attempts.undo',
+  input: z.object({
+    id: recordId,
+    last: z.uuid({ error: 'last is the clientId of the answer you see as the last one.' }).optional(),
+  }),
+  output: diagnosisViewSchema,
+  handler: async ({ user, scope, input }) => undoMyAnswer({ user, scope, id: input.id, last: input.last }),
 });
 
 // GET /api/practice/apprentices/{id}

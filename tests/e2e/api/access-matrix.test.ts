@@ -170,6 +170,7 @@ const ROUTES: Record<OperationName, RouteCase> = {
   'treeVersions.validation': { method: 'GET', path: (r) => `/api/tree-versions/${r.treeVersionId}/validation`, rows: true },
   'treeVersions.diff': { method: 'GET', path: (r) => `/api/tree-versions/${r.treeVersionId}/diff?against=builtin`, rows: true },
   'treeVersions.export': { method: 'GET', path: (r) => `/api/tree-versions/${r.treeVersionId}/export`, rows: true },
+  'treeVersions.isolationCheck': { method: 'GET', path: (r) => `/api/tree-versions/${r.treeVersionId}/isolation-check`, rows: true },
   'trees.usage': { method: 'GET', path: (r) => `/api/trees/${r.treeId}/usage`, rows: true },
   'trees.companyUsage': { method: 'GET', path: () => '/api/trees/usage', rows: false },
   'reports.pdf': { method: 'GET', path: (r) => `/api/calls/${r.callId}/report.pdf`, rows: true },
@@ -224,6 +225,14 @@ const ROUTES: Record<OperationName, RouteCase> = {
     body: () => ({ findingStepId: 'no-such-finding' }),
     rows: true,
   },
+  // The matrix's attempt walks no tree: the operation's own 400, nothing stored.
+  'practice.attempts.answer': {
+    method: 'POST',
+    path: (r) => `/api/practice/attempts/${practiceOf(r).attemptId}/answers`,
+    body: () => ({ clientId: '00000000-0000-4000-8000-000000000001', stepId: 'start', confirmed: true }),
+    rows: true,
+  },
+  'practice.attempts.undo': { method: 'DELETE', path: (r) => `/api/practice/attempts/${practiceOf(r).attemptId}/answers/last`, rows: true },
   'practice.progress': { method: 'GET', path: (r) => `/api/practice/apprentices/${practiceOf(r).apprenticeId}`, rows: true },
   'practice.bench.get': { method: 'GET', path: (r) => `/api/practice/attempts/${practiceOf(r).attemptId}/bench`, rows: true },
   'practice.bench.act': {
@@ -286,7 +295,7 @@ const practiceRows = new Map<string, PracticeRows>();
 const practiceOf = (r: Rows): PracticeRows => practiceRows.get(r.userId)!;
 /** An apprentice's own practice rows: the others of the company are out of an `own` reach. */
 const OWN_PRACTICE =
-  /^(practice\.(attempts\.(start|get|finish)|bench\.(get|act|measure|observe))|bench\.sessions\.(get|act|measure|observe))$/;
+  /^(practice\.(attempts\.(start|get|finish|answer|undo)|bench\.(get|act|measure|observe))|bench\.sessions\.(get|act|measure|observe))$/;
 /** A bench session of each row owner's own (bench.sessions.*: a session belongs to its user whatever the role). */
 const benchSessions = new Map<string, string>();
 const benchOf = (r: Rows): string => benchSessions.get(r.userId)!;

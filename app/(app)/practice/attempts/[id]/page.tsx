@@ -2,13 +2,16 @@ import type { Metadata } from 'next';
 import Link from 'next/link';
 import { AttemptRunner } from '@/components/practice/attempt-runner';
 import { unitText } from '@/components/practice/format';
-import { AttemptPath, ScoreCard } from '@/components/practice/score-card';
+import { PracticeWizard } from '@/components/practice/practice-wizard';
+import { AttemptPath, ScoreCard, WalkPath } from '@/components/practice/score-card';
 import { BackLink } from '@/components/ui/back-link';
 import { Time } from '@/components/ui/time-zone';
+import { getCompany } from '@/db/companies';
 import { orNotFound, pageScope } from '@/lib/server/operation';
-import { attemptDetail } from '@/lib/server/practice';
+import { attemptDetail, attemptWalkView } from '@/lib/server/practice';
+import { diagnosisViewSchema } from '@/lib/validations/api';
 import { attemptSchema } from '@/lib/validations/practice';
-import { finishAttemptAction } from '../../actions';
+import { finishAttemptAction, practiceAnswerAction, practiceUndoAction } from '../../actions';
 
 export const metadata: Metadata = { title: 'Practice attempt' };
 export const dynamic = 'force-dynamic';
@@ -19,6 +22,8 @@ export default async function AttemptPage({ params }: { params: Promise<{ id: st
   const a = attemptSchema.parse(await orNotFound(attemptDetail({ user, scope, id })));
   const mine = a.apprentice.id === user.id;
   const running = a.finishedAt === null;
+  const walk = running && mine && a.walk ? await attemptWalkView({ user, scope, id }) : null;
+  const company = walk ? await getCompany({ id: scope.companyId }) : null;
   return (
     <div className="space-y-6">
       <BackLink href={mine ? '/practice' : `/practice/scenarios/${a.scenarioId}`}>{mine ? 'Practice' : 'The scenario'}</BackLink>
@@ -30,7 +35,19 @@ export default async function AttemptPage({ params }: { params: Promise<{ id: st
         </p>
         {a.notes && <p className="mt-2 whitespace-pre-line text-base">{a.notes}</p>}
       </div>
-      {running && mine ? (
+      {running && mine && walk && company ? (
+        <PracticeWizard
+          attemptId={a.id}
+          unit={a.unit}
+          facts={walk.unit}
+          version={walk.version}
+          initialView={diagnosisViewSchema.parse(walk.view)}
+          displayUnits={company.displayUnits}
+          answer={practiceAnswerAction}
+          undo={practiceUndoAction}
+        />
+      ) : running && mine ? (
+        // An attempt started without a tree to walk: the finding is reported by hand.
         <AttemptRunner attempt={a} finish={finishAttemptAction} />
       ) : (
         <>
@@ -60,6 +77,7 @@ export default async function AttemptPage({ params }: { params: Promise<{ id: st
             </section>
           )}
           {a.score && <ScoreCard score={a.score} />}
+          {a.walk && <WalkPath walk={a.walk} />}
           {(a.events.length > 0 || !mine) && <AttemptPath attempt={a} />}
           {mine && (
             <Link href="/practice" className="btn-secondary">
