@@ -10,6 +10,7 @@ import * as mail from '@/lib/server/operations/mail';
 import * as trees from '@/lib/server/operations/trees';
 import * as practice from '@/lib/server/operations/practice';
 import * as bench from '@/lib/server/operations/bench';
+import * as isolation from '@/lib/server/operations/isolation';
 
 /** Every declared operation, by its policy name (tests check it against lib/policy.ts both ways). */
 export const OPERATIONS: ReadonlyMap<OperationName, Operation> = new Map(
@@ -24,6 +25,7 @@ export const OPERATIONS: ReadonlyMap<OperationName, Operation> = new Map(
       ...Object.values(trees),
       ...Object.values(practice),
       ...Object.values(bench),
+      ...Object.values(isolation),
     ] as Operation[]
   ).map((op) => [op.name, op]),
 );
