@@ -7,6 +7,9 @@
 // for both, the ratios, and the issue's targets. Exit code 0 whenever the bench ran, met or not.
 // Flags: --quick (3 s a level), --no-build (reuse the last builds, if any), --cpu-prof (the app
 // server writes V8 CPU profiles into bench/out/prof and the bench prints where its time went). BENCH_SECONDS sets the seconds a level; DATABASE_POOL_MAX goes to both servers.
+// First it times the isolation check (bench/isolation.ts, in a process of its own: one core);
+// --isolation-only times only that.
+import { spawnSync } from 'node:child_process';
 import { randomUUID } from 'node:crypto';
 import { closeSync, existsSync, mkdirSync, mkdtempSync, openSync, rmSync, writeFileSync } from 'node:fs';
 import http from 'node:http';
@@ -31,6 +34,7 @@ import { summarize } from './profile.mjs';
 const quick = process.argv.includes('--quick');
 const reuseBuilds = process.argv.includes('--no-build');
 const cpuProf = process.argv.includes('--cpu-prof');
+const isolationOnly = process.argv.includes('--isolation-only');
 const SECONDS = Number(process.env.BENCH_SECONDS ?? (quick ? 3 : 8));
 const WARMUP_SECONDS = quick ? 1 : 2;
 const LEVELS = [1, 8, 32];
@@ -471,7 +475,45 @@ function report(rows) {
   return verdicts;
 }
 
+/** The isolation check's time, from bench/isolation.ts run through tsx in a process of its own; null when it could not run. */
+function isolationBench() {
+  log('Timing the isolation check (bench/isolation.ts)…');
+  const r = spawnSync(process.execPath, ['--import', 'tsx', path.join('bench', 'isolation.ts'), '--json'], {
+    cwd: root,
+    encoding: 'utf8',
+    env: { ...process.env, NODE_ENV: 'production' },
+  });
+  if (r.status !== 0) {
+    console.error(`The isolation bench did not run (${r.status ?? r.signal}):\n${r.stderr}`);
+    return null;
+  }
+  const figures = JSON.parse(r.stdout.trim().split('\n').at(-1));
+  const d = figures.defaultTree;
+  const g = figures.generatedTree;
+  console.log(
+    [
+      '',
+      `Isolation check (median of ${figures.runs} runs after a warm-up, one process)`,
+      `  default tree    ${String(d.faults).padStart(3)} faults × ${d.steps} steps: ${d.ok}/${d.faults} isolated, ${d.stepsWalked} steps walked, ${d.medianMs.toFixed(1)} ms`,
+      `  generated tree  ${String(g.faults).padStart(3)} faults × ${g.steps} steps: ${g.ok}/${g.faults} isolated, ${g.stepsWalked} steps walked, ${g.medianMs.toFixed(1)} ms — target ≤ ${g.targetMs} ms ${g.met ? 'met' : 'MISSED'}`,
+      '',
+    ].join('\n'),
+  );
+  return figures;
+}
+
 async function main() {
+  const isolation = isolationBench();
+  if (isolationOnly) {
+    if (isolation) {
+      mkdirSync(path.join(root, 'bench', 'out'), { recursive: true });
+      writeFileSync(
+        path.join(root, 'bench', 'out', 'isolation.json'),
+        JSON.stringify({ at: new Date().toISOString(), ...isolation }, null, 2),
+      );
+    }
+    return;
+  }
   ensureDependencies();
   const bin = ensurePostgres();
   const tmp = mkdtempSync(path.join(os.tmpdir(), 'proving-ground-bench-'));
@@ -609,7 +651,7 @@ async function main() {
     writeFileSync(
       file,
       JSON.stringify(
-        { at: new Date().toISOString(), seconds: SECONDS, warmup: WARMUP_SECONDS, poolMax: POOL_MAX, rows, verdicts },
+        { at: new Date().toISOString(), seconds: SECONDS, warmup: WARMUP_SECONDS, poolMax: POOL_MAX, rows, verdicts, isolation },
         null,
         2,
       ),

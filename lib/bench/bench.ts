@@ -97,6 +97,8 @@ export interface Bench {
   observe<K extends ObservationKind>(what: K): { result: ObservationResult<K>; time: number };
   /** The state of the sequence (tags of the ignition machine) and of the flame, for the screen and tests. */
   status(): BenchStatus;
+  /** Seconds until the control's next timed step (the end of a purge, a trial…), or null when none is pending. */
+  nextEventIn(): number | null;
 }
 
 export interface BenchStatus extends BenchSnapshot {
@@ -120,6 +122,15 @@ export interface CreateBenchOptions {
    * volts (the default) or a status light read against its legend.
    */
   flameTest?: FlameTestMethodId;
+}
+
+// Building the sequence machine is far dearer than starting an actor of it: one per control profile.
+const MACHINES = new Map<string, ReturnType<typeof createIgnitionSequenceMachine>>();
+function sequenceMachineFor(profile: ControlProfile) {
+  const key = JSON.stringify(profile);
+  let machine = MACHINES.get(key);
+  if (!machine) MACHINES.set(key, (machine = createIgnitionSequenceMachine(profile)));
+  return machine;
 }
 
 export function createBench({
@@ -193,10 +204,19 @@ export function createBench({
     return s.psClosed;
   };
 
+  // The fault and the unit are fixed for the session, so a reading depends only on the circuit's
+  // switches and relays: solved once per state and pair of points.
+  const solved = new Map<string, number>();
+  const voltsAt = (s: CircuitState, a: NodeId, b: NodeId): number => {
+    const key = `${+s.switchClosed}${+s.calling}${+s.inducerRelay}${+s.psFeed}${+s.valveRelay}${+s.rodPowered}${+s.psClosed}${+s.rolloutClosed} ${a} ${b}`;
+    let v = solved.get(key);
+    if (v === undefined) solved.set(key, (v = buildCircuit(effect, s, unit).volts(a, b)));
+    return v;
+  };
   const valveVolts = (): number => {
     const s = state();
     if (!s.valveRelay) return 0;
-    return buildCircuit(effect, s, unit).volts('valve-hot', 'valve-common');
+    return voltsAt(s, 'valve-hot', 'valve-common');
   };
   // Whether the burners light when the valve is powered during a trial.
   const lightsWithValve = () => gasReachesBurners && effect?.gas?.orificesBlocked !== true && sparkAtGap && gapIn <= WIDEST_LIGHTING_GAP_IN;
@@ -253,7 +273,7 @@ export function createBench({
   const startControl = () => {
     clock.clearAll();
     actor?.stop();
-    actor = createActor(createIgnitionSequenceMachine(profile), {
+    actor = createActor(sequenceMachineFor(profile), {
       clock,
       input: { safetyClosed: true, flameProves: provesOnThisUnit },
     });
@@ -395,12 +415,11 @@ export function createBench({
         'spark',
         'The spark rod is at about 10 kV while the control sparks: a meter lead on it now would be destroyed. Wait until the sparking stops.',
       );
-    const circuit = buildCircuit(effect, s, unit);
     if (mode === 'vdc') {
       // The unit is all AC: a DC range reads about nothing but its own offset.
       return { value: display(0.02 * noise(), 2), unit: unitSymbol, time: time() };
     }
-    const v = circuit.volts(a as NodeId, b as NodeId);
+    const v = voltsAt(s, a as NodeId, b as NodeId);
     const value = Math.abs(v * (1 + 0.004 * noise()) + 0.06 * noise());
     return { value: display(value, 1), unit: unitSymbol, time: time() };
   };
@@ -525,6 +544,11 @@ export function createBench({
     return { time: time(), sequenceState: sequenceState() };
   };
 
+  const nextEventIn = (): number | null => {
+    const due = clock.nextDue();
+    return due === null ? null : Math.max(0, due - clock.now()) / 1000;
+  };
+
   return {
     unit,
     fault,
@@ -535,5 +559,6 @@ export function createBench({
     gauge,
     observe,
     status,
+    nextEventIn,
   };
 }

@@ -205,9 +205,12 @@ function waitFor(bench: Bench, moment: Moment) {
     bench.act('wait', 2);
   }
   bench.act('call-for-heat');
+  // From one timed step of the control to the next (the end of the pre-purge, of the spark lead…),
+  // never further than the longest wait.
   let trialSeen = false;
-  for (let t = 0; t < MAX_MOMENT_WAIT_S; t += STEP_S) {
-    const state = bench.act('wait', STEP_S).sequenceState;
+  let waited = 0;
+  let state = bench.snapshot().sequenceState;
+  for (;;) {
     if (moment === 'proving' && state === 'trial.proving') {
       // Into the window, where a flame that lights has lit.
       bench.act('wait', STEP_S);
@@ -221,6 +224,11 @@ function waitFor(bench: Bench, moment: Moment) {
       if (state.startsWith('trial')) trialSeen = true;
       else if (trialSeen) return;
     }
+    const next = bench.nextEventIn();
+    if (next === null || waited + next > MAX_MOMENT_WAIT_S) return;
+    const step = Math.max(next, 0.001);
+    state = bench.act('wait', step).sequenceState;
+    waited += step;
   }
 }
 
