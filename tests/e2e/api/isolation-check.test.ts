@@ -82,14 +82,21 @@ describe('GET /api/tree-versions/{id}/isolation-check', () => {
     const made = await lead.post('/api/trees', { title: unique('Isolation check tree'), symptom: 'No heat', equipmentKind: 'dsi-furnace' });
     expect(made.status, made.text).toBe(201);
     const fuse = graph.steps.find((s: { id: string }) => s.id === 'fuse-output');
-    fuse.bands[0].outcome = 'thermostat-call';
+    // The two bands past the fuse swapped: no 24 V goes on to the thermostat, 24 V to the blown fuse.
+    [fuse.bands[0].outcome, fuse.bands[1].outcome] = [fuse.bands[1].outcome, fuse.bands[0].outcome];
     const saved = await lead.call('PUT', `/api/tree-versions/${made.json.id}`, { baseRevision: 1, graph });
     expect(saved.status, saved.text).toBe(200);
     const res = await lead.get(`/api/tree-versions/${made.json.id}/isolation-check`);
     expect(res.status, res.text).toBe(200);
-    const misses = res.json.filter((r: { ok: boolean }) => !r.ok);
-    expect(misses.map((r: { faultId: string }) => r.faultId)).toEqual(['blown-fuse']);
-    expect(misses[0].reason).toMatch(/lacks the tags/);
+    const rows = new Map(res.json.map((r: { faultId: string }) => [r.faultId, r]));
+    expect(rows.get('blown-fuse')).toMatchObject({
+      ok: false,
+      reachedStepId: 'f-no-call-for-heat',
+      reason: expect.stringMatching(/lacks the tags/),
+    });
+    expect(rows.get('open-high-limit')).toMatchObject({ ok: false, reachedStepId: 'f-blown-fuse' });
+    // Faults found before the fuse still isolate.
+    for (const id of ['no-line-power', 'open-transformer']) expect(rows.get(id), id).toMatchObject({ ok: true });
 
     fuse.bands[0].outcome = 'no-such-step';
     const broken = await lead.call('PUT', `/api/tree-versions/${made.json.id}`, { baseRevision: saved.json.revision, graph });
