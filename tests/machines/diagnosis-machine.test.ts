@@ -15,7 +15,7 @@ import { DEFAULT_TREE_GRAPH } from '@/lib/trees/default-tree';
 import { treeGraphSchema, type TreeVersion, type UnitFacts } from '@/lib/trees/schema';
 import { explore } from '../support/walk-tree';
 
-const tree: TreeVersion = { id: 'tv-default', version: 2, graph: DEFAULT_TREE_GRAPH };
+const tree: TreeVersion = { id: 'tv-default', version: 3, graph: DEFAULT_TREE_GRAPH };
 const unit: UnitFacts = { ignition: 'two-rod', fuel: 'natural-gas', controlSupply: '24v', draft: 'induced' };
 const walks = explore(tree, [unit]);
 
@@ -138,6 +138,41 @@ describe('diagnosis machine on the default tree', () => {
     send({ type: 'answer.undo' });
     expect(at()).toBe('verify--f-dirty-flame-rod');
     expect(r.actor.getSnapshot().context.findingId).toBe('f-dirty-flame-rod');
+  });
+
+  it('on a single-rod unit retakes the flame signal at the control after the repair, and only that one', () => {
+    const singleRod: UnitFacts = { ...unit, ignition: 'single-rod' };
+    const r = replayAnswers(
+      tree,
+      [
+        { stepId: 'line-voltage', value: 120 },
+        { stepId: 'trial-observe', choice: 'lights-drops' },
+        { stepId: 'neutral-ground', value: 0.3 },
+        { stepId: 'hot-ground', value: 120 },
+        { stepId: 'control-flame-test', choice: 'test-terminals' },
+        { stepId: 'lock-out--connect-flame-test-meter', confirmed: true },
+        { stepId: 'connect-flame-test-meter', confirmed: true },
+        { stepId: 're-energize--control-flame-voltage', confirmed: true },
+        { stepId: 'control-flame-voltage', value: 0.5 },
+        { stepId: 'carry-over', choice: 'carries' },
+        { stepId: 'lock-out--rod-inspect', confirmed: true },
+        { stepId: 'rod-inspect', choice: 'dirty' },
+      ],
+      { unit: singleRod },
+    );
+    expect(r.ok).toBe(true);
+    const send = r.actor.send.bind(r.actor);
+    const at = () => walkStateOf(r.actor.getSnapshot()).stateId;
+    expect(at()).toBe('f-dirty-flame-rod');
+    send({ type: 'answer.confirm', stepId: 'f-dirty-flame-rod' });
+    // The walk never read microamps: the meter goes back on the test terminals, not in the rod lead.
+    expect(at()).toBe('reconnect--control-flame-voltage--f-dirty-flame-rod');
+    send({ type: 'answer.confirm', stepId: at() });
+    expect(at()).toBe('re-energize--recheck--control-flame-voltage--f-dirty-flame-rod');
+    send({ type: 'answer.confirm', stepId: at() });
+    expect(at()).toBe('recheck--control-flame-voltage--f-dirty-flame-rod');
+    send({ type: 'answer.measure', stepId: at(), value: 4.3 });
+    expect(at()).toBe('verify--f-dirty-flame-rod');
   });
 
   it('sends a value exactly on a band limit to the upper band, and OL to the band open above', () => {
