@@ -6,8 +6,9 @@
 // isolated when the finding reached carries every tag the fault expects (lib/bench/faults.ts).
 //
 // Plain TypeScript, no framework or database: the route, the tests and `npm run bench` run this.
-// What it does not model: the gas. The bench's gas supply is always on (a fault decides its
-// pressure); the technician's gas state is followed only as far as the step's needs go.
+// What it does not model: the gas shut-off. The bench's gas supply is always on (a fault decides its
+// pressure); the technician's gas is followed from the steps' needs, and a step that would fire the
+// burners or read a gas pressure with the gas left off stops the run.
 import { findBand, shiftedBands } from '@/lib/bands';
 import { BenchRefusal, createBench, DEFAULT_BENCH_UNIT, type Bench, type BenchUnit, type MeasureRequest } from '@/lib/bench/bench';
 import { FAULTS, faultFits, getFault, type Fault } from '@/lib/bench/faults';
@@ -115,7 +116,7 @@ function answerStep(bench: Bench, step: Step, unit: BenchUnit, readings: Record<
       return { answer: `${step.fact} = ${value} (unit record)`, next: c.outcome };
     }
     case 'action':
-      setEnergy(bench, step.energy.electric);
+      setEnergy(bench, step.energy);
       return { answer: 'done', next: step.outcome };
     case 'measure':
       return answerMeasure(bench, step, readings);
@@ -131,7 +132,8 @@ function answerMeasure(bench: Bench, step: MeasureStep, readings: Record<string,
   if (!probe) throw new Stop('the step says in words where to measure but has no probe the bench can take.');
   const byGauge = 'gauge' in probe;
   const needsPower = byGauge ? GAUGES[probe.gauge as GaugeId].quantity === 'pressure' : step.quantity !== 'ohm';
-  setEnergy(bench, step.energy.electric === 'any' ? (needsPower ? 'on' : 'off') : step.energy.electric);
+  setEnergy(bench, { electric: step.energy.electric === 'any' ? (needsPower ? 'on' : 'off') : step.energy.electric, gas: step.energy.gas });
+  if (byGauge && needsPower && gasOf(bench) === 'off') throw new Stop('it reads a gas pressure with the gas left off.');
   for (let attempt = 0; attempt <= RETAKES; attempt++) {
     waitFor(bench, step.at ?? 'now');
     let value: number | null;
@@ -166,7 +168,7 @@ function answerInspect(bench: Bench, step: InspectStep): { answer: string; next:
     const what = look.what as ObservationKind;
     const power = OBSERVATIONS[what].power;
     const electric = step.energy.electric === 'any' ? (power === 'any' ? 'any' : power) : step.energy.electric;
-    setEnergy(bench, electric);
+    setEnergy(bench, { electric, gas: step.energy.gas });
     waitFor(bench, look.at ?? 'now');
     const { result } = bench.observe(what);
     seen.push(`${what}: ${result}`);
@@ -179,9 +181,14 @@ function answerInspect(bench: Bench, step: InspectStep): { answer: string; next:
   throw new Stop(`no choice for what the bench showed (${seen.join(', ')}).`);
 }
 
-function setEnergy(bench: Bench, electric: 'on' | 'off' | 'any') {
-  if (electric === 'on') bench.act('power-on');
-  else if (electric === 'off') bench.act('power-off');
+/** The technician's gas (manual shut-off and appliance valve), as the steps' needs left it: on as found. */
+const GAS = new WeakMap<Bench, 'on' | 'off'>();
+const gasOf = (bench: Bench) => GAS.get(bench) ?? 'on';
+
+function setEnergy(bench: Bench, need: { electric: 'on' | 'off' | 'any'; gas: 'on' | 'off' | 'any' }) {
+  if (need.electric === 'on') bench.act('power-on');
+  else if (need.electric === 'off') bench.act('power-off');
+  if (need.gas !== 'any') GAS.set(bench, need.gas);
 }
 
 /**
@@ -192,6 +199,7 @@ function setEnergy(bench: Bench, electric: 'on' | 'off' | 'any') {
 function waitFor(bench: Bench, moment: Moment) {
   if (moment === 'now') return;
   if (!bench.snapshot().powered) throw new Stop(`a reading at "${moment}" needs the power on, and the step has it off.`);
+  if (moment !== 'call' && gasOf(bench) === 'off') throw new Stop(`a reading at "${moment}" fires the burners, and the gas is left off.`);
   if (moment === 'call') {
     if (!bench.snapshot().calling) {
       bench.act('call-for-heat');

@@ -106,6 +106,17 @@ describe('the isolation check catches a tree that does not isolate', () => {
     });
   });
 
+  it('stops a walk that would fire the burners with the gas left off', () => {
+    const g = clone(DEFAULT_TREE_GRAPH);
+    // The manifold reading no longer says it needs the gas on, after the manometer was moved with it off.
+    measureOf(g, 'manifold-pressure').energy = { electric: 'on', gas: 'any' };
+    expect(isolateFault(g, 'gas-valve-not-opening')).toMatchObject({
+      ok: false,
+      reachedStepId: 'manifold-pressure',
+      reason: expect.stringMatching(/gas left off/),
+    });
+  });
+
   it('says so for a fault that is not in the library or not on the unit', () => {
     expect(isolateFault(DEFAULT_TREE_GRAPH, 'no-such-fault')).toMatchObject({ ok: false, reachedStepId: null });
     expect(isolateFault(DEFAULT_TREE_GRAPH, 'vent-blocked', { unit: { draft: 'natural' } })).toMatchObject({
