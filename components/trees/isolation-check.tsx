@@ -7,34 +7,89 @@
 import Link from 'next/link';
 import { useState } from 'react';
 import { useIsolationCheck } from '@/lib/swr/use-isolation-check';
-import type { IsolationRowOut } from '@/lib/validations/trees';
+import { UNIT_FACTS, type UnitFact } from '@/lib/trees/schema';
+import type { IsolationQuery, IsolationRowOut } from '@/lib/validations/isolation';
+
+type Profile = Required<Pick<IsolationQuery, UnitFact>> & Pick<IsolationQuery, 'flameTest'>;
 
 export interface IsolationCheckProps {
   versionId: string;
   /** The version's steps, to name the step reached. */
   steps: { id: string; title: string; kind: string }[];
-  /** The fault library's titles, by fault id. */
-  faults: { id: string; title: string }[];
   /** Where a step of this version opens: the editor for a draft, the read-only view otherwise. */
   stepHref: string;
+  /** The unit profile the check starts on (the bench's default unit). */
+  defaultUnit: IsolationRowOut['unit'];
 }
 
-function unitText(unit: IsolationRowOut['unit']): string | null {
-  if (!unit) return null;
-  return [
-    unit.controlSupply === 'line' ? 'line-voltage control' : '24 V control',
-    unit.ignition,
-    unit.fuel,
-    unit.draft && `${unit.draft} draft`,
-  ]
-    .filter(Boolean)
-    .join(', ');
+const FACT_LABEL: Record<UnitFact, string> = { controlSupply: 'Control supply', ignition: 'Ignition', fuel: 'Fuel', draft: 'Draft' };
+const FLAME_TESTS: { value: NonNullable<IsolationQuery['flameTest']>; label: string }[] = [
+  { value: 'dc-test-terminals', label: 'DC test terminals' },
+  { value: 'status-light', label: 'A status light' },
+];
+
+/** The unit profile to run the faults on: every fact a tree branches on, and a single-rod control's flame-signal test. */
+function ProfilePicker({ profile, onChange }: { profile: Profile; onChange: (p: Profile) => void }) {
+  return (
+    <form className="card flex flex-wrap items-end gap-3" aria-label="The unit the faults run on" onSubmit={(e) => e.preventDefault()}>
+      {(['controlSupply', 'ignition', 'fuel', 'draft'] as const).map((fact) => (
+        <div key={fact}>
+          <label className="label" htmlFor={`iso-${fact}`}>
+            {FACT_LABEL[fact]}
+          </label>
+          <select
+            id={`iso-${fact}`}
+            className="input"
+            value={profile[fact]}
+            onChange={(e) => {
+              const next = { ...profile, [fact]: e.target.value } as Profile;
+              if (next.ignition !== 'single-rod') delete next.flameTest;
+              onChange(next);
+            }}
+          >
+            {UNIT_FACTS[fact].map((v) => (
+              <option key={v}>{v}</option>
+            ))}
+          </select>
+        </div>
+      ))}
+      {profile.ignition === 'single-rod' && (
+        <div>
+          <label className="label" htmlFor="iso-flame-test">
+            The control&rsquo;s flame-signal test
+          </label>
+          <select
+            id="iso-flame-test"
+            className="input"
+            value={profile.flameTest ?? 'dc-test-terminals'}
+            onChange={(e) => onChange({ ...profile, flameTest: e.target.value as Profile['flameTest'] })}
+          >
+            {FLAME_TESTS.map((t) => (
+              <option key={t.value} value={t.value}>
+                {t.label}
+              </option>
+            ))}
+          </select>
+        </div>
+      )}
+    </form>
+  );
 }
 
-export function IsolationCheck({ versionId, steps, faults, stepHref }: IsolationCheckProps) {
-  const { data, error, isLoading, isValidating, mutate } = useIsolationCheck(versionId);
+export function IsolationCheck({ versionId, steps, stepHref, defaultUnit }: IsolationCheckProps) {
+  const [profile, setProfile] = useState<Profile>(defaultUnit);
+  return (
+    <div className="space-y-3">
+      <ProfilePicker profile={profile} onChange={setProfile} />
+      {/* A fresh matrix per profile: its filter and its loading state start over. */}
+      <IsolationMatrix key={JSON.stringify(profile)} versionId={versionId} steps={steps} stepHref={stepHref} profile={profile} />
+    </div>
+  );
+}
+
+function IsolationMatrix({ versionId, steps, stepHref, profile }: Omit<IsolationCheckProps, 'defaultUnit'> & { profile: Profile }) {
+  const { data, error, isLoading, isValidating, mutate } = useIsolationCheck(versionId, profile);
   const [missesOnly, setMissesOnly] = useState(false);
-  const titleOf = new Map(faults.map((f) => [f.id, f.title]));
   const stepOf = new Map(steps.map((s) => [s.id, s]));
   const href = (stepId: string) => `${stepHref}${stepHref.includes('?') ? '&' : '?'}step=${encodeURIComponent(stepId)}`;
 
@@ -68,7 +123,6 @@ export function IsolationCheck({ versionId, steps, faults, stepHref }: Isolation
 
   const misses = data.filter((r) => !r.ok);
   const rows = missesOnly ? misses : data;
-  const units = [...new Set(data.map((r) => unitText(r.unit)).filter((u): u is string => u !== null))];
 
   return (
     <div className="space-y-3">
@@ -84,7 +138,6 @@ export function IsolationCheck({ versionId, steps, faults, stepHref }: Isolation
             </>
           )}
         </h2>
-        {units.length > 0 && <p className="text-sm text-muted">On a unit: {units.join('; ')}.</p>}
         <div className="ml-auto flex flex-wrap items-center gap-2">
           {misses.length > 0 && (
             <label className="flex min-h-touch items-center gap-2 text-sm font-semibold">
@@ -122,13 +175,13 @@ export function IsolationCheck({ versionId, steps, faults, stepHref }: Isolation
               const step = row.reachedStepId ? stepOf.get(row.reachedStepId) : undefined;
               return (
                 <tr
-                  key={`${row.faultId}:${unitText(row.unit) ?? ''}`}
+                  key={row.faultId}
                   data-fault={row.faultId}
                   data-ok={row.ok}
                   className={row.ok ? 'border-t border-line align-top' : 'border-t border-line border-l-4 border-l-ink bg-sunken align-top'}
                 >
                   <th scope="row" className="px-3 py-2 font-semibold">
-                    {titleOf.get(row.faultId) ?? row.faultId}
+                    {row.faultTitle}
                     <span className="block font-mono text-xs font-normal text-muted">{row.faultId}</span>
                   </th>
                   <td className="px-3 py-2">
@@ -163,9 +216,11 @@ export function IsolationCheck({ versionId, steps, faults, stepHref }: Isolation
                   <td className="px-3 py-2">
                     <p className="font-semibold">{row.ok ? '✓ Isolated' : '✗ Missed'}</p>
                     {row.reason && <p className="mt-1">{row.reason}</p>}
-                    {row.path && row.path.length > 0 && (
+                    {row.path.length > 0 && (
                       <details className="mt-1">
-                        <summary className="min-h-touch cursor-pointer py-2 text-muted">The walk ({row.path.length} steps)</summary>
+                        <summary className="min-h-touch cursor-pointer py-2 text-muted">
+                          The walk ({row.path.length} step{row.path.length === 1 ? '' : 's'})
+                        </summary>
                         <ol className="list-decimal space-y-0.5 pl-5">
                           {row.path.map((p, i) => (
                             <li key={i}>

@@ -111,21 +111,3 @@ export const waitingReviewSchema = z.object({
 });
 export const waitingReviewListSchema = z.array(waitingReviewSchema);
 export type WaitingReview = z.output<typeof waitingReviewSchema>;
-
-/**
- * GET /api/tree-versions/{id}/isolation-check: for each fault of the bench's library, the finding a
- * tree version reaches with the bench answering its steps, and whether that finding carries the
- * tags the fault expects. `reason`, `unit` and `path` say more where the check gives them.
- */
-export const isolationRowSchema = z.object({
-  faultId: z.string(),
-  expectedFindingTags: z.array(z.string()),
-  /** The finding reached, or the step the run stopped at; null when it did not start. */
-  reachedStepId: z.string().nullable(),
-  ok: z.boolean(),
-  reason: z.string().optional(),
-  unit: z.object({ controlSupply: z.string(), ignition: z.string(), fuel: z.string(), draft: z.string().optional() }).optional(),
-  path: z.array(z.object({ stepId: z.string(), answer: z.string() })).optional(),
-});
-export const isolationCheckSchema = z.array(isolationRowSchema);
-export type IsolationRowOut = z.output<typeof isolationRowSchema>;

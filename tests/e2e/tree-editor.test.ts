@@ -392,10 +392,7 @@ it('a diagnosis in progress keeps its version after a lead publishes a new one; 
 
   // A diagnosis started now follows the new version: same first answer, the revised step.
   const next = await startFromCallPage(page, await newCall(tech, unitId));
-  await page
-    .getByText(`· v${v1.version + 1}`, { exact: false })
-    .first()
-    .waitFor();
+  await page.getByText(`· v${draft.json.version}`, { exact: false }).first().waitFor();
   await next.wizard.enterReading(valueIn(band!));
   await next.wizard.saveReading();
   await next.wizard.waitForTitle(revised(second));

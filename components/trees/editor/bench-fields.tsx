@@ -260,7 +260,7 @@ function ObservationEditor({
                   )}
                   {choices.map((c) => (
                     <option key={c.value} value={c.value}>
-                      {c.label} ({c.value})
+                      {c.label}
                     </option>
                   ))}
                 </select>

@@ -1,7 +1,7 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
 import { IsolationCheck } from '@/components/trees/isolation-check';
-import { FAULTS } from '@/lib/bench/faults';
+import { DEFAULT_BENCH_UNIT } from '@/lib/bench/bench';
 import { orNotFound, pageScope } from '@/lib/server/operation';
 import { getVersionForAuthoring } from '@/lib/server/trees';
 import { authoringVersionSchema } from '@/lib/validations/api';
@@ -35,7 +35,7 @@ export default async function IsolationPage({ params }: { params: Promise<{ vers
           </p>
         )}
       </div>
-      <IsolationCheck versionId={version.id} steps={steps} faults={FAULTS.map((f) => ({ id: f.id, title: f.title }))} stepHref={home} />
+      <IsolationCheck versionId={version.id} steps={steps} defaultUnit={DEFAULT_BENCH_UNIT} stepHref={home} />
     </div>
   );
 }
