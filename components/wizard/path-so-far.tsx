@@ -53,7 +53,7 @@ export function PathSoFar({ items, callId }: { items: PathItem[]; callId?: strin
               {!item.saved && <span className="ml-2 text-base italic text-muted">(not saved yet)</span>}
             </span>
             {callId && takesPhotos(item) && (
-              <div className="col-start-2 mt-2 sm:col-span-2">
+              <div className="col-start-2 mt-2 sm:col-end-4">
                 <PhotoControl
                   callId={callId}
                   answerId={item.clientId}

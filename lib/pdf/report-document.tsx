@@ -80,7 +80,7 @@ const s = StyleSheet.create({
   meta: { flexDirection: 'row', flexWrap: 'wrap' },
   metaItem: { width: '50%', flexDirection: 'row', marginBottom: 2 },
   metaKey: { width: 78, color: MUTED },
-  metaValue: { flex: 1, fontWeight: 700 },
+  metaValue: { flex: 1, fontWeight: 700, paddingRight: 8 },
   bold: { fontWeight: 700 },
   mono: { fontFamily: 'Report Mono' },
   finding: { borderWidth: 1.5, borderColor: INK, borderRadius: 3, padding: 7, marginBottom: 6 },
@@ -95,7 +95,8 @@ const s = StyleSheet.create({
   cautionWord: { fontSize: 10, fontWeight: 700, paddingHorizontal: 6, paddingVertical: 2, letterSpacing: 1 },
   cautionText: { paddingHorizontal: 6, paddingVertical: 4 },
   photos: { flexDirection: 'row', flexWrap: 'wrap' },
-  photo: { width: 110, height: 110, objectFit: 'cover', marginRight: 6, marginBottom: 6, borderWidth: 0.5, borderColor: LINE },
+  // Thumbnails small enough that a visit's few photos keep the customer copy on one page.
+  photo: { width: 84, height: 84, objectFit: 'cover', marginRight: 6, marginBottom: 6, borderWidth: 0.5, borderColor: LINE },
   footer: { borderTopWidth: 2, borderTopColor: INK, paddingTop: 6, marginTop: 12 },
   pageFoot: { position: 'absolute', bottom: 24, left: 42, right: 42, fontSize: 8, color: MUTED },
 });
