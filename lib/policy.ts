@@ -188,7 +188,9 @@ export const PAGE_ACCESS = {
   '/calls': 'calls.list',
   '/units': 'units.get',
   '/trees': { roles: ['lead', 'admin'] },
-  '/practice': { roles: ['apprentice', 'trainer'] },
+  // Apprentices run their assignments, trainers make them; leads and admins read the results and
+  // prove a tree on a bench session of their own (a fault of their choice).
+  '/practice': { roles: ['apprentice', 'trainer', 'lead', 'admin'] },
   '/admin/users': 'users.list',
   '/admin/company': 'company.update',
 } as const satisfies Record<string, OperationName | { roles: readonly Role[] }>;

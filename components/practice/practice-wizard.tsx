@@ -26,15 +26,28 @@ export interface PracticeWizardProps {
   initialView: DiagnosisViewOut;
   displayUnits: UnitSystem;
   /** The practice operations' server actions (components do not import from app/). */
-  answer: (input: unknown) => Promise<ActionResult<PracticeAnswerResult>>;
-  undo: (input: unknown) => Promise<ActionResult<DiagnosisViewOut>>;
-  /** For tests: a bench other than the attempt's over HTTP. */
+  answer?: (input: unknown) => Promise<ActionResult<PracticeAnswerResult>>;
+  undo?: (input: unknown) => Promise<ActionResult<DiagnosisViewOut>>;
+  /** The wizard's actions instead of the practice operations (a lead proving a tree: nothing stored). */
+  actions?: WizardActions;
+  /** A bench other than the attempt's over HTTP (a lead's own session; tests). */
   client?: BenchClient;
 }
 
 const NO_ESCALATION = 'A practice walk is not sent to the leads: if no choice fits what the bench shows, tell your trainer.';
 
-export function PracticeWizard({ attemptId, unit, facts, version, initialView, displayUnits, answer, undo, client }: PracticeWizardProps) {
+export function PracticeWizard({
+  attemptId,
+  unit,
+  facts,
+  version,
+  initialView,
+  displayUnits,
+  answer,
+  undo,
+  actions: given,
+  client,
+}: PracticeWizardProps) {
   const router = useRouter();
   const bench = useMemo(
     () => client ?? httpBenchClient(`/api/practice/attempts/${encodeURIComponent(attemptId)}/bench`, { gauges: true }),
@@ -46,34 +59,39 @@ export function PracticeWizard({ attemptId, unit, facts, version, initialView, d
   const onTaken = useCallback((t: BenchTaken) => setTaken((all) => [...all, t]), []);
 
   const actions = useMemo<WizardActions>(
-    () => ({
-      submitAnswer: async (input) => {
-        const { answer: a } = input as { answer: unknown };
-        const result = await answer({ id: attemptId, answer: a });
-        if (result.ok && result.data.scored) {
-          setScored(true);
-          router.refresh();
-        }
-        // The attempt moved on elsewhere (finished in another tab): show the page as it now stands.
-        if (!result.ok && result.code === 'conflict') {
-          router.refresh();
-          return { ...result, code: 'bad_request' as const };
-        }
-        return result;
+    () =>
+      given ?? {
+        submitAnswer: async (input) => {
+          const { answer: a } = input as { answer: unknown };
+          if (!answer) return { ok: false, code: 'bad_request', message: 'Nowhere to save this answer.' };
+          const result = await answer({ id: attemptId, answer: a });
+          if (result.ok && result.data.scored) {
+            setScored(true);
+            router.refresh();
+          }
+          // The attempt moved on elsewhere (finished in another tab): show the page as it now stands.
+          if (!result.ok && result.code === 'conflict') {
+            router.refresh();
+            return { ...result, code: 'bad_request' as const };
+          }
+          return result;
+        },
+        undoAnswer: async (input) => {
+          const { last } = input as { last?: string };
+          if (!undo) return { ok: false, code: 'bad_request', message: 'Nothing to undo here.' };
+          return undo({ id: attemptId, ...(last ? { last } : {}) });
+        },
+        escalate: async () => ({ ok: false, code: 'bad_request', message: NO_ESCALATION }),
       },
-      undoAnswer: async (input) => {
-        const { last } = input as { last?: string };
-        return undo({ id: attemptId, ...(last ? { last } : {}) });
-      },
-      escalate: async () => ({ ok: false, code: 'bad_request', message: NO_ESCALATION }),
-    }),
-    [answer, undo, attemptId, router],
+    [given, answer, undo, attemptId, router],
   );
 
   const sources = useMemo<StepSources>(
     () => ({
       reading: (step) => {
         if (!step.probe) return null;
+        // A bench that reads no gauges (a plain bench session): the keypad, as without a probe.
+        if ('gauge' in step.probe && !bench.gauge) return null;
         const latest = taken.findLast((t) => t.kind === 'measure' && readingAnswers(step, t.request));
         const unitSymbol = CANONICAL_UNITS[step.quantity];
         return {
@@ -111,7 +129,7 @@ export function PracticeWizard({ attemptId, unit, facts, version, initialView, d
         };
       },
     }),
-    [taken],
+    [taken, bench],
   );
 
   if (scored) {

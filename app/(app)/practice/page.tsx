@@ -1,5 +1,6 @@
 import type { Metadata } from 'next';
 import Link from 'next/link';
+import { FreeBenchForm } from '@/components/practice/free-bench-form';
 import { ResultsTable } from '@/components/practice/results-table';
 import { ScenarioForm } from '@/components/practice/scenario-form';
 import { StartAttemptButton } from '@/components/practice/start-attempt-button';
@@ -15,7 +16,9 @@ export const dynamic = 'force-dynamic';
 
 export default async function PracticePage() {
   const user = await requirePageUser({ page: '/practice' });
-  return user.role === 'apprentice' ? <ApprenticePractice /> : <TrainerPractice />;
+  if (user.role === 'apprentice') return <ApprenticePractice />;
+  // Trainers make scenarios; leads and admins read the same results and prove a tree on a bench of their own.
+  return <TrainerPractice trainer={user.role === 'trainer'} />;
 }
 
 async function ApprenticePractice() {
@@ -62,22 +65,41 @@ async function ApprenticePractice() {
   );
 }
 
-async function TrainerPractice() {
+async function TrainerPractice({ trainer }: { trainer: boolean }) {
   const { scope } = await pageScope('practice.overview');
   const data = practiceOverviewSchema.parse(await practiceOverview({ scope }));
   return (
     <div className="space-y-8">
       <div>
         <h1 className="page-title">Practice scenarios</h1>
-        <p className="text-muted">Bench faults on a unit profile, assigned to apprentices, and how their attempts went.</p>
+        <p className="text-muted">
+          {trainer
+            ? 'Bench faults on a unit profile, assigned to apprentices, and how their attempts went.'
+            : 'The trainers’ scenarios and how the apprentices’ attempts went (read only), and a bench of your own to prove the tree against a fault.'}
+        </p>
       </div>
+
+      {!trainer && (
+        <section id="prove" aria-labelledby="prove-title" className="card space-y-3">
+          <h2 id="prove-title" className="text-xl font-bold">
+            Prove the tree on the bench
+          </h2>
+          <p className="text-base text-muted">
+            Choose a fault and a unit: the published no-heat tree is walked in the wizard with the bench answering each step, so you see
+            which finding the tree reaches for that fault. Nothing of the walk is stored.
+          </p>
+          <FreeBenchForm faults={data.faults} />
+        </section>
+      )}
 
       <section aria-labelledby="scenarios-title" className="space-y-3">
         <h2 id="scenarios-title" className="text-xl font-bold">
           Scenarios: <span className="font-mono">{data.scenarios.length}</span>
         </h2>
         {data.scenarios.length === 0 ? (
-          <p className="card text-muted">No scenario yet: create the first one below.</p>
+          <p className="card text-muted">
+            {trainer ? 'No scenario yet: create the first one below.' : 'No trainer has made a scenario yet.'}
+          </p>
         ) : (
           <ul className="grid gap-3 sm:grid-cols-2" data-testid="scenarios">
             {data.scenarios.map((s) => (
@@ -123,12 +145,14 @@ async function TrainerPractice() {
         <ResultsTable rows={data.attempts} />
       </section>
 
-      <section id="new-scenario" aria-labelledby="new-title" className="card space-y-3">
-        <h2 id="new-title" className="text-xl font-bold">
-          New scenario
-        </h2>
-        <ScenarioForm faults={data.faults} createScenario={createScenarioAction} />
-      </section>
+      {trainer && (
+        <section id="new-scenario" aria-labelledby="new-title" className="card space-y-3">
+          <h2 id="new-title" className="text-xl font-bold">
+            New scenario
+          </h2>
+          <ScenarioForm faults={data.faults} createScenario={createScenarioAction} />
+        </section>
+      )}
     </div>
   );
 }
