@@ -1,7 +1,8 @@
 'use client';
 
+import { SWRConfig } from 'swr';
 import { PhotoControl } from '@/components/photos/photo-control';
-import { useCallPhotos } from '@/lib/swr/use-call-photos';
+import { callPhotosKey, useCallPhotos } from '@/lib/swr/use-call-photos';
 import type { AttachmentListOut } from '@/lib/validations/attachments';
 
 export interface PhotoGroupLabel {
@@ -35,34 +36,37 @@ export function CallPhotos({
   const count = photos.length;
 
   return (
-    <section aria-labelledby="photos-heading" className="card space-y-5" data-testid="call-photos">
-      <div>
-        <h2 id="photos-heading" className="text-xl font-bold">
-          Photos{count > 0 ? ` (${count})` : ''}
-        </h2>
-        <p className="text-sm text-muted">
-          Photos of a reading or an observation are added from its row in the diagnosis’s “Path so far”; they show here and in the report.
-        </p>
-      </div>
-      <Group title="The call">
-        <PhotoControl callId={callId} subject="the call" />
-      </Group>
-      {findings.map((f) => (
-        <Group key={f.id} title={`Finding: ${f.label}`}>
-          <PhotoControl callId={callId} findingId={f.id} subject={`the finding “${f.label}”`} />
+    // The page's list as every control's first answer, so none of them starts with "Loading photos…".
+    <SWRConfig value={{ fallback: { [callPhotosKey(callId)]: initial } }}>
+      <section aria-labelledby="photos-heading" className="card space-y-5" data-testid="call-photos">
+        <div>
+          <h2 id="photos-heading" className="text-xl font-bold">
+            Photos{count > 0 ? ` (${count})` : ''}
+          </h2>
+          <p className="text-sm text-muted">
+            Photos of a reading or an observation are added from its row in the diagnosis’s “Path so far”; they show here and in the report.
+          </p>
+        </div>
+        <Group title="The call">
+          <PhotoControl callId={callId} subject="the call" />
         </Group>
-      ))}
-      {withPhotos.map((a) => (
-        <Group key={a.id} title={a.label}>
-          <PhotoControl callId={callId} answerId={a.id} subject={a.label} compact />
-        </Group>
-      ))}
-      {orphans.map((id, i) => (
-        <Group key={id} title={`An earlier answer ${orphans.length > 1 ? i + 1 : ''}`.trim()}>
-          <PhotoControl callId={callId} answerId={id} subject="an earlier answer" compact />
-        </Group>
-      ))}
-    </section>
+        {findings.map((f) => (
+          <Group key={f.id} title={`Finding: ${f.label}`}>
+            <PhotoControl callId={callId} findingId={f.id} subject={`the finding “${f.label}”`} />
+          </Group>
+        ))}
+        {withPhotos.map((a) => (
+          <Group key={a.id} title={a.label}>
+            <PhotoControl callId={callId} answerId={a.id} subject={a.label} compact />
+          </Group>
+        ))}
+        {orphans.map((id, i) => (
+          <Group key={id} title={`An earlier answer ${orphans.length > 1 ? i + 1 : ''}`.trim()}>
+            <PhotoControl callId={callId} answerId={id} subject="an earlier answer" compact />
+          </Group>
+        ))}
+      </section>
+    </SWRConfig>
   );
 }
 
