@@ -5,9 +5,10 @@ import { navFor, NAV_ITEMS, ROLES, type Role } from '@/lib/roles';
 const EXPECTED: Record<Role, string[]> = {
   apprentice: ['/', '/calls', '/practice'],
   technician: ['/', '/calls', '/units'],
-  lead: ['/', '/calls', '/units', '/trees'],
+  // Leads and admins read practice results and prove a tree on the bench (issue 9).
+  lead: ['/', '/calls', '/units', '/trees', '/practice'],
   trainer: ['/', '/practice'],
-  admin: ['/', '/calls', '/units', '/trees', '/admin/users', '/admin/company'],
+  admin: ['/', '/calls', '/units', '/trees', '/practice', '/admin/users', '/admin/company'],
 };
 
 describe('navFor', () => {
