@@ -208,7 +208,7 @@ describe('saving a draft', () => {
     expect(validation.ok).toBe(false);
     // A draft with problems is saved, never submitted.
     const error = await refusal(submitVersion({ scope: scopeOf(people.lead), id: t.id, who: 'lead' }));
-    expect(error.code).toBe('conflict');
+    expect(error.code).toBe('unprocessable');
     expect(await status(t.id)).toBe('draft');
   });
 });
