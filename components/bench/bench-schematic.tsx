@@ -37,9 +37,9 @@ export const TEST_POINTS: readonly PointPlace[] = [
   { id: 'inducer-hot', x: 690, y: 180, label: 'above', when: induced },
   { id: 'ps-in', x: 690, y: 262, label: 'below', when: induced },
   { id: 'ps-out', x: 560, y: 262, label: 'below', when: induced },
-  { id: 'valve-hot', x: 640, y: 380, label: 'above' },
+  { id: 'valve-hot', x: 610, y: 380, label: 'above' },
   { id: 'valve-out', x: 740, y: 380, label: 'above' },
-  { id: 'valve-common', x: 560, y: 480, label: 'right' },
+  { id: 'valve-common', x: 520, y: 480, label: 'right' },
   { id: 'flame-test-plus', x: 780, y: 205, label: 'right' },
   { id: 'flame-test-minus', x: 780, y: 290, label: 'right' },
   { id: 'spark-rod', x: 830, y: 560, label: 'below' },
@@ -159,7 +159,8 @@ export function BenchSchematic({ unit, series, leads, disabled, onTap }: Props) 
             <circle cx={p.x} cy={p.y} r={20} fill="none" className={role === 'common' ? 'stroke-ink' : 'stroke-copper'} strokeWidth={5} />
             <rect
               x={p.x > WIDTH - 80 ? p.x - 66 : p.x + 14}
-              y={p.y - 40}
+              // Clear of the point's own label: below it when the label is above.
+              y={p.label === 'above' ? p.y + 16 : p.y - 40}
               width={role === 'series' ? 46 : 52}
               height={24}
               rx={6}
@@ -167,7 +168,7 @@ export function BenchSchematic({ unit, series, leads, disabled, onTap }: Props) 
             />
             <text
               x={p.x > WIDTH - 80 ? p.x - 40 : p.x + 40}
-              y={p.y - 23}
+              y={p.label === 'above' ? p.y + 33 : p.y - 23}
               textAnchor="middle"
               className={clsx('text-[14px] font-bold', role === 'common' ? 'fill-surface' : 'fill-copper-ink')}
             >
@@ -225,7 +226,7 @@ export function BenchSchematic({ unit, series, leads, disabled, onTap }: Props) 
         <Contact x1={724} x2={776} y={70} label="rollout" />
         {/* The control */}
         <rect x={740} y={150} width={220} height={270} rx={10} className="fill-raised stroke-ink" strokeWidth={3} />
-        <text x={850} y={350} textAnchor="middle" className="fill-ink text-[17px] font-bold">
+        <text x={875} y={255} textAnchor="middle" className="fill-ink text-[17px] font-bold">
           ignition control
         </text>
         <text x={880} y={172} textAnchor="middle" className="fill-muted text-[13px]">
@@ -254,7 +255,7 @@ export function BenchSchematic({ unit, series, leads, disabled, onTap }: Props) 
         {/* Inducer and pressure switch */}
         {induced(unit) && (
           <g>
-            <Wire d="M740 180 L616 180 M564 180 L490 180 L490 700" />
+            <Wire d="M740 180 L616 180 M564 180 L450 180 L450 700" />
             <circle cx={590} cy={180} r={26} className="fill-raised stroke-ink" strokeWidth={3} />
             <text x={590} y={186} textAnchor="middle" className="fill-ink text-[15px] font-bold">
               M
@@ -267,12 +268,12 @@ export function BenchSchematic({ unit, series, leads, disabled, onTap }: Props) 
           </g>
         )}
         {/* Gas valve */}
-        <Wire d="M740 380 L600 380" />
-        <rect x={520} y={355} width={80} height={55} rx={6} className="fill-raised stroke-ink" strokeWidth={3} />
-        <text x={560} y={388} textAnchor="middle" className="fill-ink text-[14px] font-bold">
+        <Wire d="M740 380 L560 380" />
+        <rect x={480} y={355} width={80} height={55} rx={6} className="fill-raised stroke-ink" strokeWidth={3} />
+        <text x={520} y={388} textAnchor="middle" className="fill-ink text-[14px] font-bold">
           valve
         </text>
-        <Wire d="M560 410 L560 700" />
+        <Wire d="M520 410 L520 700" />
         {/* Rods and burner */}
         <Wire d="M830 420 L830 549" thick />
         <text x={842} y={455} className="fill-muted text-[12px]">

@@ -18,7 +18,8 @@ interface Look {
 /** Words for the states of the ignition sequence (the last part of a nested state name decides). */
 export function describeState(state: string): Look {
   const s = state.toLowerCase();
-  if (s === 'off' || s.includes('unpowered')) return { label: 'Power off', fill: 'empty' };
+  // The bench says "off" whenever the control has no power: the unit switched off, or a supply fault (a blown fuse).
+  if (s === 'off' || s.includes('unpowered')) return { label: 'Control not powered', fill: 'empty' };
   if (s.includes('lockout')) return { label: 'Lockout', fill: 'dark' };
   if (s.includes('safety-open')) return { label: 'Safety circuit open', fill: 'dark' };
   if (s.includes('proving')) return { label: 'Trial: valve open, proving flame', fill: 'hatched' };
