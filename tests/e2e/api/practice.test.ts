@@ -1,8 +1,11 @@
-// Practice over HTTP: a trainer makes and assigns a scenario, the apprentice runs it on the bench
-// through the bench API, reports a finding and gets a score worked out by the server; who may see
-// and do what, and refusals that change nothing.
+// Practice over HTTP: a trainer makes and assigns a scenario, the apprentice walks the tree on the
+// attempt's bench (each answer checked against what the bench gave) to a finding, which the server
+// scores; who may see and do what, and refusals that change nothing.
 // @vitest-environment node
+import { randomUUID } from 'node:crypto';
 import { beforeAll, describe, expect, it } from 'vitest';
+import { DEFAULT_TREE_GRAPH } from '@/lib/trees/default-tree';
+import { replayAnswers, stateIdOf } from '@/machines/diagnosis-machine';
 import { ApiClient, DEMO, signedIn, unique } from '../support/http';
 
 const unit = { controlSupply: '24v', ignition: 'two-rod', fuel: 'natural-gas', draft: 'induced' } as const;
@@ -77,7 +80,7 @@ describe('practice scenarios', () => {
 });
 
 describe('an attempt on the bench', () => {
-  it('runs on its bench session, is scored by the server once, and shows the trainer the full path', async () => {
+  it('walks the tree on its bench: readings checked against the bench, scored by the server at the finding, the full path for the trainer', async () => {
     const { scenarioId, assignment } = await scenarioFor(['blown-fuse']);
     const started = await apprentice.post(`/api/practice/assignments/${assignment.id}/attempts`, {});
     expect(started.status, started.text).toBe(201);
@@ -86,43 +89,136 @@ describe('an attempt on the bench', () => {
     const running = await apprentice.get(`/api/practice/attempts/${id}`);
     expect(running.json.fault).toBeNull();
     expect(running.json.expectedFindings).toEqual([]);
+    expect(running.json.walk.path).toEqual([]);
     // The trainer may see what is injected; the session is not theirs to work.
     expect((await trainer.get(`/api/practice/attempts/${id}`)).json.fault.id).toBe('blown-fuse');
 
     const bench = `/api/practice/attempts/${id}/bench`;
+    const answers = `/api/practice/attempts/${id}/answers`;
+    const version = { id: running.json.walk.treeVersionId, version: running.json.walk.version, graph: DEFAULT_TREE_GRAPH };
+    const walked: { stepId: string; value?: number; choice?: string; confirmed?: boolean }[] = [];
+    const at = () => stateIdOf(replayAnswers(version, walked, { unit }).snapshot.value)!;
+    const answer = async (body: Record<string, unknown>) => {
+      const stepId = at();
+      const res = await apprentice.post(answers, { clientId: randomUUID(), stepId, ...body });
+      if (res.status === 200)
+        walked.push({
+          stepId,
+          ...(res.json.answer.value !== null ? { value: res.json.answer.value } : {}),
+          ...(res.json.answer.choice ? { choice: res.json.answer.choice } : {}),
+          ...(res.json.answer.confirmed ? { confirmed: true } : {}),
+        });
+      return res;
+    };
+    const measure = async (a: string, b: string) => {
+      const r = await apprentice.post(`${bench}/measure`, { mode: 'vac', a, b });
+      expect(r.status, r.text).toBe(200);
+      return r.json.value as number;
+    };
+
     expect((await apprentice.post(`${bench}/actions`, { action: 'power-on' })).status).toBe(200);
-    const secondary = await apprentice.post(`${bench}/measure`, { mode: 'vac', a: 'xfmr-hot', b: 'xfmr-common' });
-    const pastFuse = await apprentice.post(`${bench}/measure`, { mode: 'vac', a: 'fuse-out', b: 'xfmr-common' });
-    // A point the circuit does not have: refused in words, nothing stored (the path below has three events).
+    expect(at()).toBe('line-voltage');
+    // A reading before the bench gave one, and one it never showed: refused in words, nothing stored.
+    const early = await answer({ text: '120', unit: 'VAC' });
+    expect(early.status).toBe(400);
+    expect(early.json.error.message).toMatch(/Take this reading on the bench first/);
+    const line = await measure('line-hot', 'line-neutral');
+    const made = await answer({ text: String(line + 9), unit: 'VAC' });
+    expect(made.status).toBe(400);
+    expect(made.json.error.message).toMatch(/never showed that reading/);
+    expect((await apprentice.get(`/api/practice/attempts/${id}`)).json.walk.path).toEqual([]);
+    // A point the circuit does not have: refused in words, nothing stored on the bench either.
     const unknown = await apprentice.post(`${bench}/measure`, { mode: 'vac', a: 'xfmr-hot', b: 'no-such-point' });
     expect(unknown.status).toBe(400);
     expect(unknown.json.error.message).toMatch(/no-such-point/);
     expect((await trainer.post(`${bench}/measure`, { mode: 'vac', a: 'xfmr-hot', b: 'xfmr-common' })).status).toBe(403);
-    // A blown fuse leaves 24 V at the secondary and none past the fuse (issue 9's physics; common practice, no source).
-    expect(secondary.json.value).toBeGreaterThan(20);
-    expect(pastFuse.json.value).toBeLessThan(2);
+    // Nobody but the apprentice answers the walk.
+    expect((await trainer.post(answers, { clientId: randomUUID(), stepId: 'line-voltage', text: String(line), unit: 'VAC' })).status).toBe(
+      403,
+    );
 
-    // An apprentice cannot send a score; only the finding.
-    const cheeky = await apprentice.post(`/api/practice/attempts/${id}/finish`, { findingStepId: 'f-blown-fuse', score: { total: 100 } });
-    expect(cheeky.status).toBe(400);
-    const done = await apprentice.post(`/api/practice/attempts/${id}/finish`, { findingStepId: 'f-blown-fuse' });
-    expect(done.status, done.text).toBe(200);
+    expect((await answer({ text: String(line), unit: 'VAC' })).status).toBe(200);
+    expect(at()).toBe('trial-observe');
+    await apprentice.post(`${bench}/actions`, { action: 'call-for-heat' });
+    await apprentice.post(`${bench}/actions`, { action: 'wait', seconds: 60 });
+    const trial = await apprentice.post(`${bench}/observe`, { what: 'trial' });
+    expect(trial.json.result).toBe('no-spark');
+    expect((await answer({ choice: 'no-spark' })).status).toBe(200);
+    expect(at()).toBe('transformer-secondary');
+    const secondary = await measure('xfmr-hot', 'xfmr-common');
+    // A blown fuse leaves 24 V at the secondary and none past the fuse (issue 9's physics; common practice, no source).
+    expect(secondary).toBeGreaterThan(20);
+    expect((await answer({ text: String(secondary), unit: 'VAC' })).status).toBe(200);
+    const pastFuse = await measure('fuse-out', 'xfmr-common');
+    expect(pastFuse).toBeLessThan(2);
+    let last = await answer({ text: String(pastFuse), unit: 'VAC' });
+    expect(last.status, last.text).toBe(200);
+    // Before the fuse is handled, the power is turned off on the bench and verified dead.
+    while (!last.json.scored) {
+      if (at().startsWith('lock-out')) {
+        const live = await answer({ confirmed: true });
+        expect(live.status).toBe(400);
+        expect(live.json.error.message).toMatch(/still powered/);
+        await apprentice.post(`${bench}/actions`, { action: 'power-off' });
+        expect(await measure('line-hot', 'line-neutral')).toBeLessThan(2);
+      }
+      last = await answer({ confirmed: true });
+      expect(last.status, last.text).toBe(200);
+    }
+
+    const done = await apprentice.get(`/api/practice/attempts/${id}`);
+    expect(done.json.finding.id).toBe('f-blown-fuse');
     const lines = Object.fromEntries(done.json.score.lines.map((l: { key: string; points: number }) => [l.key, l.points]));
     expect(lines.finding).toBe(50);
     expect(lines.safety).toBe(20);
-    expect(done.json.score.measurements).toBe(2);
+    // Four meter readings and one look on the bench.
+    expect(done.json.score.measurements).toBe(5);
     expect(done.json.fault.id).toBe('blown-fuse');
+    expect(done.json.walk.path.map((p: { stepId: string }) => p.stepId).slice(0, 4)).toEqual([
+      'line-voltage',
+      'trial-observe',
+      'transformer-secondary',
+      'fuse-output',
+    ]);
 
+    // Scored once: the walk, the hand-picked finding and the bench are closed.
+    expect((await apprentice.post(answers, { clientId: randomUUID(), stepId: 'fuse-output', confirmed: true })).status).toBe(409);
     expect((await apprentice.post(`/api/practice/attempts/${id}/finish`, { findingStepId: 'f-blown-fuse' })).status).toBe(409);
-    // Scored: its bench is closed.
     expect((await apprentice.post(`${bench}/actions`, { action: 'wait', seconds: 5 })).status).toBe(409);
     const detail = await trainer.get(`/api/practice/scenarios/${scenarioId}`);
     const row = detail.json.attempts.find((a: { id: string }) => a.id === id);
     expect(row).toMatchObject({ right: true, total: done.json.score.total, faultId: 'blown-fuse' });
     const path = (await trainer.get(`/api/practice/attempts/${id}`)).json.events;
-    expect(path.map((e: { kind: string }) => e.kind)).toEqual(['action', 'measure', 'measure']);
+    expect(path.filter((e: { kind: string }) => e.kind !== 'action').map((e: { kind: string }) => e.kind)).toEqual([
+      'measure',
+      'observe',
+      'measure',
+      'measure',
+      'measure',
+    ]);
     const progress = await trainer.get(`/api/practice/apprentices/${apprenticeId}`);
     expect(progress.json.isolated.map((f: { faultId: string }) => f.faultId)).toContain('blown-fuse');
+  });
+
+  it('takes back the last answer for its apprentice only; the bench keeps what was done', async () => {
+    const { assignment } = await scenarioFor(['open-high-limit']);
+    const { id } = (await apprentice.post(`/api/practice/assignments/${assignment.id}/attempts`, {})).json;
+    const bench = `/api/practice/attempts/${id}/bench`;
+    await apprentice.post(`${bench}/actions`, { action: 'power-on' });
+    const line = (await apprentice.post(`${bench}/measure`, { mode: 'vac', a: 'line-hot', b: 'line-neutral' })).json.value;
+    const clientId = randomUUID();
+    expect(
+      (await apprentice.post(`/api/practice/attempts/${id}/answers`, { clientId, stepId: 'line-voltage', text: String(line), unit: 'VAC' }))
+        .status,
+    ).toBe(200);
+    expect((await trainer.call('DELETE', `/api/practice/attempts/${id}/answers/last?last=${clientId}`)).status).toBe(403);
+    expect((await apprentice.call('DELETE', `/api/practice/attempts/${id}/answers/last?last=${randomUUID()}`)).status).toBe(409);
+    const undone = await apprentice.call('DELETE', `/api/practice/attempts/${id}/answers/last?last=${clientId}`);
+    expect(undone.status, undone.text).toBe(200);
+    expect(undone.json.path).toEqual([]);
+    const attempt = (await trainer.get(`/api/practice/attempts/${id}`)).json;
+    expect(attempt.walk.path).toEqual([]);
+    expect(attempt.events.filter((e: { kind: string }) => e.kind === 'measure')).toHaveLength(1);
   });
 
   it('is the apprentice’s own: nobody else starts or finishes it', async () => {
@@ -133,5 +229,16 @@ describe('an attempt on the bench', () => {
     expect((await trainer.post(`/api/practice/attempts/${started.json.id}/finish`, { findingStepId: 'f-open-high-limit' })).status).toBe(
       403,
     );
+    // An admin (here of another company) is no apprentice: the role is refused before any row is read.
+    expect(
+      (
+        await otherAdmin.post(`/api/practice/attempts/${started.json.id}/answers`, {
+          clientId: randomUUID(),
+          stepId: 'line-voltage',
+          text: '120',
+          unit: 'VAC',
+        })
+      ).status,
+    ).toBe(403);
   });
 });
