@@ -249,3 +249,32 @@ describe('a practice walk on the built-in tree', () => {
     expect(done.score?.safetyLapses).toEqual([]);
   });
 });
+
+describe('gauges on a practice bench', () => {
+  it('reads the valve’s inlet pressure and the spark gap, stored as readings the scoring counts', async () => {
+    const s = await setUp('gauge', PROBED_VERSION.graph);
+    // Power off for the spark gap: the gap gauge is held at the rod (the bench refuses it powered).
+    const gap = await attemptBenchMeasure(s.ctx, { mode: 'gauge', gauge: 'spark-gap' });
+    // About 1/8 in (TRADE.md, the spark; common practice, no source).
+    expect(gap.value).toBeGreaterThan(0.1);
+    expect(gap.value).toBeLessThan(0.15);
+    await attemptBenchAct(s.ctx, { action: 'power-on' });
+    expect((await appError(attemptBenchMeasure(s.ctx, { mode: 'gauge', gauge: 'spark-gap' }))).message).toMatch(/power off/i);
+    const inlet = await attemptBenchMeasure(s.ctx, { mode: 'gauge', gauge: 'inlet-pressure' });
+    // Natural gas about 7 inWC at the valve's inlet with the valve shut (from memory: TRADE.md gives only the manifold figure).
+    expect(inlet.value).toBeGreaterThan(6);
+    expect(inlet.value).toBeLessThan(8);
+    expect((await appError(attemptBenchMeasure(s.ctx, { mode: 'gauge', gauge: 'no-such-gauge' }))).code).toBe('bad_request');
+    const events = (
+      await attemptDetail({
+        ...s.ctx,
+        user: asUser(s.trainer, s.companyId, 'trainer'),
+        scope: { companyId: s.companyId, userId: s.trainer, reach: 'company' },
+      })
+    ).events;
+    expect(events.filter((e) => e.kind === 'measure').map((e) => (e.kind === 'measure' ? e.gauge : null))).toEqual([
+      'spark-gap',
+      'inlet-pressure',
+    ]);
+  });
+});
