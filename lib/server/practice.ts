@@ -107,10 +107,10 @@ const findingById = new Map(FINDINGS.map((f) => [f.id, f]));
 // The tree versions attempts walk, by id: a published version never changes, so its graph is kept.
 const walkedGraphs = new Map<string, { title: string; version: number; graph: TreeGraph }>();
 
-async function walkedVersion(companyId: string, id: string) {
+async function walkedVersion(companyId: string, id: string, trx?: Parameters<typeof getTreeVersion>[1]) {
   const hit = walkedGraphs.get(id);
   if (hit) return hit;
-  const record = await getTreeVersion({ companyId, id });
+  const record = await getTreeVersion({ companyId, id }, trx);
   const entry = { title: record.title, version: record.version, graph: record.graph };
   walkedGraphs.set(id, entry);
   return entry;
@@ -496,7 +496,7 @@ async function openWalk({ user, scope, id }: { user: CurrentUser; scope: Scope; 
   const [events, answers, walked] = await Promise.all([
     listBenchEvents({ companyId: user.companyId, sessionId: session.id }, trx),
     listPracticeAnswers({ companyId: user.companyId, attemptId: a.id }, trx),
-    walkedVersion(user.companyId, a.treeVersionId),
+    walkedVersion(user.companyId, a.treeVersionId, trx),
   ]);
   const version: TreeVersion = { id: a.treeVersionId, version: walked.version, graph: walked.graph };
   return { a, session, events, answers, walked, version };
