@@ -409,6 +409,13 @@ const TARGETS: Record<string, Target> = {
     client: () => apprentice,
     valid: () => ({ mode: 'vac', a: 'xfmr-hot', b: 'xfmr-common' }),
   },
+  // An answer of the attempt's walk: without a reading the bench gave, even a valid body is refused.
+  'POST /api/practice/attempts/{id}/answers': {
+    method: 'POST',
+    path: () => `/api/practice/attempts/${ids.attempt}/answers`,
+    client: () => apprentice,
+    valid: () => ({ clientId: '00000000-0000-4000-8000-0000000000a1', stepId: 'line-voltage', text: '120', unit: 'VAC' }),
+  },
   // A finding that gets through scores the attempt once; later ones are 409s.
   'POST /api/practice/attempts/{id}/finish': {
     method: 'POST',
