@@ -44,7 +44,14 @@ export function AssignForm({ scenarioId, apprentices, assignedIds, assign }: Pro
 
   if (apprentices.length === 0)
     return <p className="text-muted">Your company has no active apprentices yet. An admin adds them under Users.</p>;
-  if (open.length === 0) return <p className="text-muted">Every apprentice of the company has this scenario.</p>;
+  // The last apprentice assigned: the form goes, the confirmation stays.
+  if (open.length === 0)
+    return (
+      <div className="space-y-2">
+        <FormMessage message={message?.text} tone={message?.tone} />
+        <p className="text-muted">Every apprentice of the company has this scenario.</p>
+      </div>
+    );
 
   return (
     <form onSubmit={submit} className="space-y-3" aria-label="Assign to apprentices">

@@ -63,5 +63,5 @@ export function probeText(step: Pick<MeasureStep, 'quantity' | 'probe' | 'at'>):
 
 /** When to look, in words, for an inspect step that observes. */
 export function observeText(observe: Pick<Observation, 'what' | 'at'>): string {
-  return `${observe.what}${MOMENT_WORDS[observe.at ?? 'now'] ?? ''}`;
+  return `the ${observe.what.replace(/-/g, ' ')}${MOMENT_WORDS[observe.at ?? 'now'] ?? ''}`;
 }

@@ -153,7 +153,7 @@ describe('a practice walk on the fixture tree', () => {
 
   it('refuses a look before it is taken and a choice other than the one the bench’s look maps to', async () => {
     const unlooked = await appError(answerMyAttempt({ ...s.ctx, input: answerOf('spark-look', { choice: 'no-spark' }) }));
-    expect(unlooked.message).toMatch(/Observe it on the bench first \(spark during the trial for ignition\)/);
+    expect(unlooked.message).toMatch(/Observe it on the bench first \(the spark during the trial for ignition\)/);
     const look = await attemptBenchObserve(s.ctx, { what: 'spark' });
     // The fuse is open: the control never sparks.
     expect(look.result).toBe('none');

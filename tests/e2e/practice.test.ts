@@ -134,6 +134,8 @@ describe('practice at tablet size', () => {
     await wizard.saveReading();
     await a.setViewportSize(VIEWPORTS['tablet-portrait']);
     await shot(a, '06c-bench-portrait');
+    await a.setViewportSize(VIEWPORTS.phone);
+    await shot(a, '06d-phone');
     await a.setViewportSize(VIEWPORTS['tablet-landscape']);
     // The fuse is handled for the repair: power off on the bench and verify it dead before confirming.
     await a
