@@ -142,7 +142,7 @@ export function PracticeWizard({
 
   return (
     <div className="grid gap-6 2xl:grid-cols-2 2xl:items-start">
-      <section aria-label="The diagnosis" data-testid="practice-wizard">
+      <section aria-label="The diagnosis" data-testid="practice-wizard" className="min-w-0">
         <Wizard
           actions={actions}
           diagnosisId={attemptId}
@@ -157,7 +157,8 @@ export function PracticeWizard({
           practice
         />
       </section>
-      <section aria-label="The bench">
+      {/* min-w-0: a grid item would otherwise widen to the schematic's own width on a phone. */}
+      <section aria-label="The bench" className="min-w-0">
         <BenchScreen client={bench} unit={unit} onTaken={onTaken} handle={handle} />
       </section>
     </div>

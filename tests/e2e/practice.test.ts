@@ -136,6 +136,8 @@ describe('practice at tablet size', () => {
     await shot(a, '06c-bench-portrait');
     await a.setViewportSize(VIEWPORTS.phone);
     await shot(a, '06d-phone');
+    // The schematic scrolls inside its frame; the page itself does not scroll sideways.
+    expect(await a.evaluate(() => document.documentElement.scrollWidth)).toBeLessThanOrEqual(VIEWPORTS.phone.width);
     await a.setViewportSize(VIEWPORTS['tablet-landscape']);
     // The fuse is handled for the repair: power off on the bench and verify it dead before confirming.
     await a
