@@ -47,7 +47,7 @@ export function TreeProving({ sessionId, unit, version, title, displayUnits }: P
   const [run, setRun] = useState(0);
   // A fresh walk for each run; the bench keeps its state (its events are the session's).
   const actions = useMemo(() => dryRunActions(version), [version, run]); // eslint-disable-line react-hooks/exhaustive-deps
-  const client = useMemo(() => httpBenchClient(`/api/bench/sessions/${encodeURIComponent(sessionId)}`), [sessionId]);
+  const client = useMemo(() => httpBenchClient(`/api/bench/sessions/${encodeURIComponent(sessionId)}`, { gauges: true }), [sessionId]);
   const facts: UnitFacts = { ignition: unit.ignition, fuel: unit.fuel, controlSupply: unit.controlSupply, draft: unit.draft };
   return (
     <div className="space-y-4">

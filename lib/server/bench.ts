@@ -15,9 +15,11 @@ import {
   createBench,
   FAULTS,
   faultFits,
+  GAUGES,
   getFault,
   type Bench,
   type BenchAction,
+  type GaugeId,
   type MeasureRequest,
   type ObservationKind,
 } from '@/lib/bench';
@@ -72,6 +74,7 @@ export function replayBench(bench: Bench, events: readonly Pick<BenchEventRecord
   for (const e of events) {
     const p = e.payload;
     if (e.kind === 'action') bench.act(p.action as BenchAction, typeof p.seconds === 'number' ? p.seconds : undefined);
+    else if (e.kind === 'measure' && p.mode === 'gauge') bench.gauge(p.gauge as GaugeId);
     else if (e.kind === 'measure') bench.measure(p as unknown as MeasureRequest);
     else bench.observe(p.what as ObservationKind);
   }
@@ -124,7 +127,8 @@ export function benchAct({ scope, id }: { scope: Scope; id: string }, input: z.o
 
 export function benchMeasure({ scope, id }: { scope: Scope; id: string }, input: z.output<typeof benchMeasureSchema>) {
   return onSession({ scope, id }, (bench) => {
-    const answer = bench.measure(input as MeasureRequest);
+    if (input.mode === 'gauge' && !(input.gauge in GAUGES)) throw new BenchRefusal('invalid', `The bench has no "${input.gauge}" gauge.`);
+    const answer = input.mode === 'gauge' ? bench.gauge(input.gauge as GaugeId) : bench.measure(input as MeasureRequest);
     return { step: { kind: 'measure', payload: { ...input }, result: { ...answer }, simTime: answer.time }, answer };
   });
 }

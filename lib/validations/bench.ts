@@ -56,8 +56,10 @@ export const benchMeasureSchema = z.union(
     z.strictObject({ mode: z.enum(['vac', 'vdc', 'ohm']), a: pointId, b: pointId }),
     z.strictObject({ mode: z.literal('udc'), series: pointId }),
     z.strictObject({ mode: z.literal('ohm'), lead: pointId }),
+    // An extension of the contract: a gauge (manometer on the valve's taps, gap gauge), as a practice attempt's bench has.
+    z.strictObject({ mode: z.literal('gauge'), gauge: pointId }),
   ],
-  { error: 'A measurement is { mode: vac | vdc | ohm, a, b } or { mode: udc, series }.' },
+  { error: 'A measurement is { mode: vac | vdc | ohm, a, b }, { mode: ohm, lead }, { mode: udc, series } or { mode: gauge, gauge }.' },
 );
 
 export const benchObserveSchema = z.strictObject(

@@ -52,6 +52,29 @@ describe('bench API', () => {
     expect((await apprentice.get(`/api/bench/sessions/${id}`)).json).toEqual(before);
   });
 
+  it('reads a gauge: the inlet pressure at rest, the spark gap with the power off only; an unknown gauge is refused', async () => {
+    const id = await session(trainer, null);
+    // A natural-gas inlet of about 7 inWC at rest (TRADE.md: common practice, no source).
+    const inlet = await trainer.post(`/api/bench/sessions/${id}/measure`, { mode: 'gauge', gauge: 'inlet-pressure' });
+    expect(inlet.status, inlet.text).toBe(200);
+    expect(inlet.json.unit).toBe('inWC');
+    expect(inlet.json.value).toBeGreaterThan(5);
+    expect(inlet.json.value).toBeLessThan(9);
+    // About 1/8 in (TRADE.md: common practice, no source).
+    const gap = await trainer.post(`/api/bench/sessions/${id}/measure`, { mode: 'gauge', gauge: 'spark-gap' });
+    expect(gap.json.value).toBeCloseTo(0.125, 1);
+    await trainer.post(`/api/bench/sessions/${id}/actions`, { action: 'power-on' });
+    const before = (await trainer.get(`/api/bench/sessions/${id}`)).json;
+    const live = await trainer.post(`/api/bench/sessions/${id}/measure`, { mode: 'gauge', gauge: 'spark-gap' });
+    expect(live.status).toBe(400);
+    expect(live.json.error.message).toMatch(/power off/i);
+    const unknown = await trainer.post(`/api/bench/sessions/${id}/measure`, { mode: 'gauge', gauge: 'tachometer' });
+    expect(unknown.status).toBe(400);
+    expect(unknown.json.error.message).toMatch(/no "tachometer" gauge/);
+    // The stored gauge readings replay: the session still answers, unchanged by the refusals.
+    expect((await trainer.get(`/api/bench/sessions/${id}`)).json).toEqual(before);
+  });
+
   it("answers 404 for another user's session, whatever their role", async () => {
     const id = await session(apprentice, 'open-high-limit');
     expect((await technician.get(`/api/bench/sessions/${id}`)).status).toBe(404);
