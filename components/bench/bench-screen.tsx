@@ -95,9 +95,11 @@ interface Props {
   onTaken?: (taken: BenchTaken) => void;
   /** Looks asked by a parent (the wizard's "Observe"). */
   handle?: Ref<BenchHandle>;
+  /** Whether the readings are scored (an apprentice's attempt); a lead's own bench is not. */
+  scored?: boolean;
 }
 
-export function BenchScreen({ client, unit, onActivity, onTaken, handle }: Props) {
+export function BenchScreen({ client, unit, onActivity, onTaken, handle, scored = true }: Props) {
   const [state, setState] = useState<BenchState | null>(null);
   const [loadError, setLoadError] = useState<string | null>(null);
   const [error, setError] = useState<string | null>(null);
@@ -408,7 +410,11 @@ export function BenchScreen({ client, unit, onActivity, onTaken, handle }: Props
           Taken so far: <span className="font-mono">{history.length}</span>
         </h2>
         {history.length === 0 ? (
-          <p className="text-muted">No reading yet. Every reading and look counts toward the score: take the ones the diagnosis needs.</p>
+          <p className="text-muted">
+            {scored
+              ? 'No reading yet. Every reading and look counts toward the score: take the ones the diagnosis needs.'
+              : 'No reading yet. Take the readings and looks the step asks for; nothing here is scored or stored with a call.'}
+          </p>
         ) : (
           <ol className="divide-y divide-line" data-testid="bench-history">
             {history.map((h) => (

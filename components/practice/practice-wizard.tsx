@@ -159,7 +159,7 @@ export function PracticeWizard({
       </section>
       {/* min-w-0: a grid item would otherwise widen to the schematic's own width on a phone. */}
       <section aria-label="The bench" className="min-w-0">
-        <BenchScreen client={bench} unit={unit} onTaken={onTaken} handle={handle} />
+        <BenchScreen client={bench} unit={unit} onTaken={onTaken} handle={handle} scored={!given} />
       </section>
     </div>
   );
