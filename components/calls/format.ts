@@ -74,6 +74,9 @@ export const formatTime = (d: Date | string | number, timeZone: string) => forma
 export const formatMonth = (d: Date | string | number, timeZone: string) => formatter('month', timeZone).format(new Date(d));
 export const formatYear = (d: Date | string | number, timeZone: string) => formatter('year', timeZone).format(new Date(d));
 
+/** A calendar day with no time (a due date, `YYYY-MM-DD`), in the same words as `formatDate`, never shifted by a zone. */
+export const formatDay = (day: string) => formatter('date', 'UTC').format(new Date(`${day}T12:00:00Z`));
+
 const RELATIVE = new Intl.RelativeTimeFormat('en-US', { numeric: 'auto' });
 
 /** "5 minutes ago", "yesterday", "3 months ago". */

@@ -1,5 +1,6 @@
 import Link from 'next/link';
 import type { AssignmentOutput } from '@/lib/validations/practice';
+import { formatDay } from '@/components/calls/format';
 
 /** An apprentice's home: their practice assignments, due dates first, with the last score of each. */
 export function ApprenticeHome({ assignments }: { assignments: readonly Omit<AssignmentOutput, 'apprentice'>[] }) {
@@ -21,7 +22,7 @@ export function ApprenticeHome({ assignments }: { assignments: readonly Omit<Ass
                 <span>
                   <span className="font-semibold">{a.title}</span>
                   <span className="block text-sm text-muted">
-                    {a.dueOn ? `Due ${a.dueOn}` : 'No due date'}
+                    {a.dueOn ? `Due ${formatDay(a.dueOn)}` : 'No due date'}
                     {a.openAttemptId ? ' · attempt under way' : ''}
                   </span>
                 </span>

@@ -1,6 +1,7 @@
 import Link from 'next/link';
 import { Time } from '@/components/ui/time-zone';
 import type { AttemptRow, ScenarioOutput } from '@/lib/validations/practice';
+import { formatDay } from '@/components/calls/format';
 
 interface Props {
   scenarios: readonly ScenarioOutput[];
@@ -33,7 +34,7 @@ export function TrainerHome({ scenarios, attempts }: Props) {
               >
                 <span className="font-semibold">{s.title}</span>
                 <span className="text-base text-muted">
-                  {s.assigned} assigned · {s.finished} finished{s.dueOn ? ` · due ${s.dueOn}` : ''}
+                  {s.assigned} assigned · {s.finished} finished{s.dueOn ? ` · due ${formatDay(s.dueOn)}` : ''}
                 </span>
               </Link>
             </li>

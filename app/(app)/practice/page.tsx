@@ -10,6 +10,7 @@ import { myAssignments, practiceOverview } from '@/lib/server/practice';
 import { requirePageUser } from '@/lib/server/guard';
 import { assignmentSchema, practiceOverviewSchema } from '@/lib/validations/practice';
 import { createScenarioAction, startAttemptAction } from './actions';
+import { formatDay } from '@/components/calls/format';
 
 export const metadata: Metadata = { title: 'Practice' };
 export const dynamic = 'force-dynamic';
@@ -44,7 +45,7 @@ async function ApprenticePractice() {
             <li key={a.id} className="card space-y-2">
               <div className="flex flex-wrap items-baseline justify-between gap-2">
                 <h2 className="text-lg font-bold">{a.title}</h2>
-                <span className="text-base">{a.dueOn ? `Due ${a.dueOn}` : 'No due date'}</span>
+                <span className="text-base">{a.dueOn ? `Due ${formatDay(a.dueOn)}` : 'No due date'}</span>
               </div>
               <p className="text-base text-muted">{unitText(a.unit)}</p>
               {a.notes && <p className="whitespace-pre-line text-base">{a.notes}</p>}
@@ -110,7 +111,7 @@ async function TrainerPractice({ trainer }: { trainer: boolean }) {
                     {s.faultIds.length === 1 ? '1 fault' : `1 of ${s.faultIds.length} faults at random`} · {unitText(s.unit)}
                   </span>
                   <span className="text-base">
-                    {s.assigned} assigned · {s.finished} of {s.attempts} attempts finished{s.dueOn ? ` · due ${s.dueOn}` : ''}
+                    {s.assigned} assigned · {s.finished} of {s.attempts} attempts finished{s.dueOn ? ` · due ${formatDay(s.dueOn)}` : ''}
                   </span>
                 </Link>
               </li>

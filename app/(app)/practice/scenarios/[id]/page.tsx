@@ -8,6 +8,7 @@ import { orNotFound, pageScope } from '@/lib/server/operation';
 import { practiceOverview, scenarioDetail } from '@/lib/server/practice';
 import { scenarioDetailSchema } from '@/lib/validations/practice';
 import { assignScenarioAction } from '../../actions';
+import { formatDay } from '@/components/calls/format';
 
 export const metadata: Metadata = { title: 'Practice scenario' };
 export const dynamic = 'force-dynamic';
@@ -25,7 +26,7 @@ export default async function ScenarioPage({ params }: { params: Promise<{ id: s
         <h1 className="page-title">{s.title}</h1>
         <p className="text-muted">
           {unitText(s.unit)} · by {s.trainerName ?? 'a former trainer'} · <Time value={s.createdAt} kind="date" />
-          {s.dueOn ? ` · due ${s.dueOn}` : ''}
+          {s.dueOn ? ` · due ${formatDay(s.dueOn)}` : ''}
         </p>
       </div>
       <section className="card space-y-2" aria-labelledby="faults-title">
