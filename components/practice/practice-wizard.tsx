@@ -142,7 +142,7 @@ export function PracticeWizard({
 
   return (
     <div className="grid gap-6 2xl:grid-cols-2 2xl:items-start">
-      <section aria-label="The diagnosis" data-testid="practice-wizard" className="min-w-0">
+      <section id="practice-step" aria-label="The diagnosis" data-testid="practice-wizard" className="min-w-0 scroll-mt-4">
         <Wizard
           actions={actions}
           diagnosisId={attemptId}
@@ -158,7 +158,13 @@ export function PracticeWizard({
         />
       </section>
       {/* min-w-0: a grid item would otherwise widen to the schematic's own width on a phone. */}
-      <section aria-label="The bench" className="min-w-0">
+      <section id="practice-bench" aria-label="The bench" className="min-w-0 scroll-mt-4">
+        {/* Below the step on a tablet: a way back up once the reading is taken (it fills the step by itself). */}
+        <p className="mb-3 2xl:hidden">
+          <a href="#practice-step" className="inline-flex min-h-12 items-center font-semibold underline underline-offset-4">
+            ↑ Back to the step
+          </a>
+        </p>
         <BenchScreen client={bench} unit={unit} onTaken={onTaken} handle={handle} scored={!given} />
       </section>
     </div>

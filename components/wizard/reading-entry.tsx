@@ -126,6 +126,10 @@ export function ReadingEntry({ step, value, onChange, onSubmit, disabled, source
           <div className="card space-y-3" data-testid="reading-source">
             <p className="label text-base">From the bench</p>
             <p className="text-base">Measure {source.hint} on the schematic: the reading fills this step.</p>
+            {/* The practice page puts the bench below the step on a tablet. */}
+            <a href="#practice-bench" className="inline-flex min-h-12 items-center font-semibold underline underline-offset-4 2xl:hidden">
+              ↓ Go to the schematic
+            </a>
             {source.reading ? (
               <>
                 <p className="font-mono text-2xl font-semibold" data-testid="source-reading">
