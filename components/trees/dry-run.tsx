@@ -8,10 +8,10 @@
 import { useMemo, useState } from 'react';
 import { z } from 'zod';
 import { Wizard, type WizardActions } from '@/components/wizard/wizard';
-import { evaluateReading } from '@/lib/bands';
+import { readAnswer } from '@/lib/answers';
+import { AppError } from '@/lib/errors';
 import { UNIT_FACTS, type Step, type TreeGraph, type TreeVersion, type UnitFact, type UnitFacts } from '@/lib/trees/schema';
 import { validateGraph } from '@/lib/trees/validate';
-import { parseReading } from '@/lib/units';
 import type { ActionResult, AnswerResult, ApiAnswer, DiagnosisViewOut } from '@/lib/validations/api';
 import { answerSchema, type AnswerInput } from '@/lib/validations/field';
 import { getStep, INITIAL_ENERGY, isAfterFinding, replayAnswers, type DiagnosisAnswer } from '@/machines/diagnosis-machine';
@@ -80,52 +80,17 @@ export function dryRunActions(version: TreeVersion, { title = '', unit }: { titl
         auto: false,
         at: new Date().toISOString(),
       } as ApiAnswer;
-      let outcome: string | undefined;
-      let verdict: AnswerResult['verdict'];
-      if (step.kind === 'measure') {
-        let value: number;
-        if (answer.overRange) {
-          if (step.quantity !== 'ohm') return refuse('OL (over range) is only for a resistance reading. Enter the value the meter shows.');
-          value = Number.POSITIVE_INFINITY;
-          Object.assign(base, { text: 'OL', overRange: true, unit: answer.unit ?? 'Ω' });
-        } else {
-          const parsed = parseReading(step.quantity, answer.text ?? '', answer.unit);
-          if (!parsed.ok) return refuse(parsed.message);
-          value = parsed.value;
-          Object.assign(base, { text: answer.text ?? null, value, unit: parsed.unit });
-        }
-        let evaluation;
-        try {
-          evaluation = evaluateReading(step, value, readingsOf(path));
-        } catch {
-          return refuse(`No band of "${step.id}" holds this reading: the bands of this draft leave a gap.`);
-        }
-        if (evaluation.band.askAgain) return refuse(evaluation.band.askAgain);
-        Object.assign(base, {
-          quantity: step.quantity,
-          band: evaluation.band.label,
-          bandIndex: evaluation.index,
-          verdict: evaluation.verdict,
-        });
-        outcome = evaluation.outcome;
-        verdict = {
-          band: evaluation.band.label,
-          outcome: evaluation.outcome ?? '',
-          position: evaluation.position,
-          verdict: evaluation.verdict,
-          value: Number.isFinite(value) ? value : Number.MAX_VALUE,
-        };
-      } else if (step.kind === 'inspect') {
-        const choice = step.choices.find((c) => c.value === answer.choice);
-        if (!choice) return refuse(`Choose one of: ${step.choices.map((c) => c.value).join(', ')}.`);
-        if (step.note?.required && !answer.note) return refuse(`${step.note.label}: write what you saw.`);
-        Object.assign(base, { choice: choice.value, choiceLabel: choice.label, text: answer.note ?? null });
-      } else if (step.kind === 'action' || step.kind === 'finding') {
-        if (answer.confirmed !== true) return refuse('Confirm the step once it is done.');
-        base.confirmed = true;
-      } else {
-        return refuse(`"${step.title}" is answered from the unit record, not by hand.`);
+      let read;
+      try {
+        read = readAnswer(step, answer, readingsOf(path));
+      } catch (e) {
+        if (e instanceof AppError) return refuse(e.message);
+        throw e;
       }
+      const { bandLabel, ...fields } = read.fields;
+      Object.assign(base, { ...fields, band: bandLabel });
+      const verdict: AnswerResult['verdict'] = read.verdict;
+      const outcome = read.verdict?.outcome;
       const next = nextOf(step, answer, outcome);
       const found =
         step.kind === 'finding' || isAfterFinding(version, step.id) || (next !== undefined && getStep(version, next)?.kind === 'finding');

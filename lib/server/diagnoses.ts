@@ -23,7 +23,8 @@ import {
 import { db } from '@/db/knex';
 import { getTreeVersion, type TreeVersionRecord } from '@/db/trees';
 import { getUnit } from '@/db/units';
-import { evaluateReading, latestReadings } from '@/lib/bands';
+import { readAnswer as readStepAnswer } from '@/lib/answers';
+import { latestReadings } from '@/lib/bands';
 import { checkConsistency, type Contradiction } from '@/lib/consistency';
 import { AppError } from '@/lib/errors';
 import type { Scope } from '@/lib/policy';
@@ -31,7 +32,6 @@ import type { Scope } from '@/lib/policy';
 /** A save's result as the handler makes it (dates still Dates); the output schema puts it on the wire. */
 type AnswerResult = z.input<typeof answerResultSchema>;
 import type { EnergyState, FindingStep, MeasureStep, TreeVersion } from '@/lib/trees/schema';
-import { parseReading } from '@/lib/units';
 import type { Role } from '@/lib/roles';
 import type { answerResultSchema } from '@/lib/validations/api';
 import type { z } from 'zod';
@@ -338,70 +338,11 @@ function readAnswer(version: TreeVersion, input: AnswerInput, readings: Record<s
       fieldErrors: { stepId: ['Unknown step.'] },
     });
   }
-  const stored: NewAnswer = { clientId: input.clientId, stepId: step.id, stepKind: step.kind };
-  const machine: DiagnosisAnswer = { stepId: step.id };
-  let verdict: AnswerResult['verdict'];
-  if (step.kind === 'measure') {
-    let value: number;
-    if (input.overRange) {
-      // "OL": over the meter's range, an open circuit. Only a resistance reading has one.
-      if (step.quantity !== 'ohm') {
-        const message = 'OL (over range) is only for a resistance reading. Enter the value the meter shows.';
-        throw new AppError('bad_request', message, { fieldErrors: { text: [message] } });
-      }
-      value = Number.POSITIVE_INFINITY;
-      Object.assign(stored, { text: 'OL', value: null, unit: input.unit ?? 'Ω', overRange: true });
-      machine.overRange = true;
-    } else {
-      const parsed = parseReading(step.quantity, input.text ?? '', input.unit);
-      if (!parsed.ok) throw new AppError('bad_request', parsed.message, { fieldErrors: { text: [parsed.message] } });
-      value = parsed.value;
-      Object.assign(stored, { text: input.text, value, unit: parsed.unit });
-      machine.value = value;
-    }
-    const evaluation = evaluateReading(step, value, readings);
-    if (evaluation.band.askAgain) {
-      // Not a reading of the unit (leads reversed, the wrong meter function): nothing is stored.
-      throw new AppError('bad_request', evaluation.band.askAgain, { fieldErrors: { text: [evaluation.band.askAgain] } });
-    }
-    Object.assign(stored, {
-      quantity: step.quantity,
-      bandIndex: evaluation.index,
-      bandLabel: evaluation.band.label,
-      verdict: evaluation.verdict,
-    });
-    verdict = {
-      band: evaluation.band.label,
-      outcome: evaluation.outcome!,
-      position: evaluation.position,
-      verdict: evaluation.verdict,
-      value: Number.isFinite(value) ? value : Number.MAX_VALUE,
-    };
-  } else if (step.kind === 'inspect') {
-    const choice = step.choices.find((c) => c.value === input.choice);
-    if (!choice) {
-      const message = `Choose one of: ${step.choices.map((c) => c.value).join(', ')}.`;
-      throw new AppError('bad_request', message, { fieldErrors: { choice: [message] } });
-    }
-    if (step.note?.required && !input.note) {
-      const message = `${step.note.label}: write what you saw.`;
-      throw new AppError('bad_request', message, { fieldErrors: { note: [message] } });
-    }
-    stored.choice = choice.value;
-    if (input.note) stored.text = input.note;
-    machine.choice = choice.value;
-  } else if (step.kind === 'action' || step.kind === 'finding') {
-    if (input.confirmed !== true) {
-      const message = step.kind === 'finding' ? 'Confirm the repair once it is done.' : 'Confirm the step once it is done.';
-      throw new AppError('bad_request', message, { fieldErrors: { confirmed: [message] } });
-    }
-    stored.confirmed = true;
-    machine.confirmed = true;
-  } else {
-    throw new AppError('bad_request', `"${step.title}" is answered from the unit record, not by hand.`, {
-      fieldErrors: { stepId: ['Answered from the unit record.'] },
-    });
-  }
+  const read = readStepAnswer(step, input, readings);
+  const { choiceLabel: _label, ...kept } = read.fields;
+  const stored: NewAnswer = { clientId: input.clientId, stepId: step.id, stepKind: step.kind, ...kept };
+  const machine: DiagnosisAnswer = { stepId: step.id, ...read.machine };
+  const verdict: AnswerResult['verdict'] = read.verdict;
   return { step, stored, machine, verdict };
 }
 

@@ -22,7 +22,7 @@ import {
   type PracticeAnswerRecord,
 } from '@/db/practice';
 import { getTreeVersion } from '@/db/trees';
-import { evaluateReading } from '@/lib/bands';
+import { readAnswer } from '@/lib/answers';
 import { AppError } from '@/lib/errors';
 import type { Scope } from '@/lib/policy';
 import {
@@ -45,8 +45,7 @@ import type { CurrentUser } from '@/lib/server/guard';
 import { notify } from '@/lib/server/notify';
 import { authorize } from '@/lib/server/operation';
 import { DEFAULT_TREE, DEFAULT_TREE_GRAPH } from '@/lib/trees/default-tree';
-import type { InspectStep, Step, TreeGraph, TreeVersion, UnitFacts } from '@/lib/trees/schema';
-import { parseReading } from '@/lib/units';
+import type { Step, TreeGraph, TreeVersion, UnitFacts } from '@/lib/trees/schema';
 import type { AnswerInput } from '@/lib/validations/field';
 import { apiAnswerSchema, type ApiAnswer, type DiagnosisViewOut } from '@/lib/validations/api';
 import { currentStep, phaseOf, replayAnswers, stateIdOf, type DiagnosisAnswer } from '@/machines/diagnosis-machine';
@@ -658,55 +657,17 @@ export async function answerMyAttempt({
       auto: false,
       at: new Date().toISOString(),
     };
-    let verdict: PracticeAnswerResult['verdict'];
     const since = Math.max(-1, ...answers.map((r) => r.benchSeq ?? -1));
     let benchSeq: number | null = null;
 
-    if (step.kind === 'measure') {
-      let value: number;
-      if (input.overRange) {
-        if (step.quantity !== 'ohm') throw refuse('OL (over range) is only for a resistance reading. Enter the value the meter shows.');
-        value = Number.POSITIVE_INFINITY;
-        Object.assign(base, { text: 'OL', overRange: true, unit: 'Ω' });
-      } else {
-        const parsed = parseReading(step.quantity, input.text ?? '', input.unit);
-        if (!parsed.ok) throw refuse(parsed.message);
-        value = parsed.value;
-        Object.assign(base, { text: input.text ?? null, value, unit: parsed.unit });
-      }
-      let evaluation;
-      try {
-        evaluation = evaluateReading(step, value, before.snapshot.context.readings);
-      } catch {
-        throw refuse(`No band of “${step.title}” holds this reading.`);
-      }
-      if (evaluation.band.askAgain) throw refuse(evaluation.band.askAgain);
-      ({ benchSeq } = benchEvidence(step, Number.isFinite(value) ? value : null, null, events, since));
-      Object.assign(base, {
-        quantity: step.quantity,
-        band: evaluation.band.label,
-        bandIndex: evaluation.index,
-        verdict: evaluation.verdict,
-      });
-      verdict = {
-        band: evaluation.band.label,
-        outcome: evaluation.outcome ?? '',
-        position: evaluation.position,
-        verdict: evaluation.verdict,
-        value: Number.isFinite(value) ? value : Number.MAX_VALUE,
-      };
-    } else if (step.kind === 'inspect') {
-      const choice = step.choices.find((c) => c.value === input.choice);
-      if (!choice) throw refuse(`Choose one of: ${step.choices.map((c) => c.label).join(', ')}.`, 'choice');
-      if (step.note?.required && !input.note?.trim()) throw refuse(`${step.note.label}: write what you saw.`, 'note');
-      ({ benchSeq } = benchEvidence(step as InspectStep, null, choice.value, events, since));
-      Object.assign(base, { choice: choice.value, choiceLabel: choice.label, text: input.note ?? null });
-    } else if (step.kind === 'action') {
-      if (input.confirmed !== true) throw refuse('Confirm the step once it is done.', 'confirmed');
-      base.confirmed = true;
-    } else {
-      throw refuse(`“${step.title}” is not answered by hand.`, 'stepId');
-    }
+    if (step.kind === 'finding' || step.kind === 'fact') throw refuse(`“${step.title}” is not answered by hand.`, 'stepId');
+    const read = readAnswer(step, input, before.snapshot.context.readings);
+    const { bandLabel, ...fields } = read.fields;
+    Object.assign(base, { ...fields, band: bandLabel });
+    const verdict: PracticeAnswerResult['verdict'] = read.verdict;
+    // A reading or a look is one the bench gave since the last answer.
+    if (step.kind === 'measure') ({ benchSeq } = benchEvidence(step, read.fields.value, null, events, since));
+    else if (step.kind === 'inspect') ({ benchSeq } = benchEvidence(step, null, read.fields.choice, events, since));
 
     const after = replayAnswers(version, [...path, base].map(asDiagnosisAnswer), { unit });
     if (!after.ok) throw refuse(after.error, 'stepId');

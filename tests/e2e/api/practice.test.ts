@@ -221,6 +221,37 @@ describe('an attempt on the bench', () => {
     expect(attempt.events.filter((e: { kind: string }) => e.kind === 'measure')).toHaveLength(1);
   });
 
+  it('keeps one walk under parallel answers: of six answers to one step (two devices, retries) one lands', async () => {
+    const { assignment } = await scenarioFor(['open-high-limit']);
+    const { id } = (await apprentice.post(`/api/practice/assignments/${assignment.id}/attempts`, {})).json;
+    const bench = `/api/practice/attempts/${id}/bench`;
+    await apprentice.post(`${bench}/actions`, { action: 'power-on' });
+    const line = (await apprentice.post(`${bench}/measure`, { mode: 'vac', a: 'line-hot', b: 'line-neutral' })).json.value;
+    // Real parallel requests: the answers queue on the attempt's bench-session row lock.
+    const results = await Promise.all(
+      Array.from({ length: 6 }, () =>
+        apprentice.post(`/api/practice/attempts/${id}/answers`, {
+          clientId: randomUUID(),
+          stepId: 'line-voltage',
+          text: String(line),
+          unit: 'VAC',
+        }),
+      ),
+    );
+    const statuses = results.map((r) => r.status);
+    expect(
+      statuses.filter((s) => s === 200),
+      statuses.join(','),
+    ).toHaveLength(1);
+    // The others are refused in words (the walk has moved on past that step), never a server error.
+    for (const r of results.filter((x) => x.status !== 200)) {
+      expect([400, 409], r.text).toContain(r.status);
+      expect(r.json.error.message.length).toBeGreaterThan(0);
+    }
+    const path = (await trainer.get(`/api/practice/attempts/${id}`)).json.walk.path;
+    expect(path.map((p: { stepId: string }) => p.stepId)).toEqual(['line-voltage']);
+  });
+
   it('is the apprentice’s own: nobody else starts or finishes it', async () => {
     const { assignment } = await scenarioFor(['open-high-limit']);
     expect((await trainer.post(`/api/practice/assignments/${assignment.id}/attempts`, {})).status).toBe(403);
