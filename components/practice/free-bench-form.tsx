@@ -5,7 +5,7 @@ import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { useForm } from 'react-hook-form';
 import type { z } from 'zod';
-import { FUEL_LABELS, IGNITION_LABELS, SUPPLY_LABELS } from '@/components/calls/format';
+import { UnitProfileFields } from '@/components/practice/unit-profile-fields';
 import { Field, FormMessage, Select } from '@/components/ui/field';
 import { createBenchSessionSchema } from '@/lib/validations/bench';
 import type { FaultChoice } from '@/lib/validations/practice';
@@ -60,50 +60,7 @@ export function FreeBenchForm({ faults }: { faults: readonly FaultChoice[] }) {
           </Select>
         )}
       </Field>
-      <fieldset className="grid gap-4 sm:grid-cols-2">
-        <legend className="label">The unit on the bench</legend>
-        <Field label="Ignition">
-          {(p) => (
-            <Select {...p} {...register('unit.ignition')}>
-              {Object.entries(IGNITION_LABELS).map(([v, l]) => (
-                <option key={v} value={v}>
-                  {l}
-                </option>
-              ))}
-            </Select>
-          )}
-        </Field>
-        <Field label="Fuel">
-          {(p) => (
-            <Select {...p} {...register('unit.fuel')}>
-              {Object.entries(FUEL_LABELS).map(([v, l]) => (
-                <option key={v} value={v}>
-                  {l}
-                </option>
-              ))}
-            </Select>
-          )}
-        </Field>
-        <Field label="Control supply">
-          {(p) => (
-            <Select {...p} {...register('unit.controlSupply')}>
-              {Object.entries(SUPPLY_LABELS).map(([v, l]) => (
-                <option key={v} value={v}>
-                  {l}
-                </option>
-              ))}
-            </Select>
-          )}
-        </Field>
-        <Field label="Draft">
-          {(p) => (
-            <Select {...p} {...register('unit.draft')}>
-              <option value="induced">Induced draft (inducer and pressure switch)</option>
-              <option value="natural">Natural draft</option>
-            </Select>
-          )}
-        </Field>
-      </fieldset>
+      <UnitProfileFields register={register} />
       <button type="submit" className="btn-primary w-full sm:w-auto" disabled={formState.isSubmitting}>
         {formState.isSubmitting ? 'Opening…' : 'Open the bench'}
       </button>

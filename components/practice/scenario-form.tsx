@@ -5,8 +5,8 @@ import { useRouter } from 'next/navigation';
 import { useState } from 'react';
 import { useForm, useWatch } from 'react-hook-form';
 import type { z } from 'zod';
-import { FUEL_LABELS, IGNITION_LABELS, SUPPLY_LABELS } from '@/components/calls/format';
-import { Field, FormMessage, Select, TextInput } from '@/components/ui/field';
+import { UnitProfileFields } from '@/components/practice/unit-profile-fields';
+import { Field, FormMessage, TextInput } from '@/components/ui/field';
 import type { ActionResult } from '@/lib/validations/api';
 import { createScenarioSchema, type FaultChoice, type ScenarioOutput } from '@/lib/validations/practice';
 
@@ -84,50 +84,7 @@ export function ScenarioForm({ faults, createScenario }: Props) {
           </p>
         )}
       </fieldset>
-      <fieldset className="grid gap-4 sm:grid-cols-2">
-        <legend className="label">The unit on the bench</legend>
-        <Field label="Ignition">
-          {(p) => (
-            <Select {...p} {...register('unit.ignition')}>
-              {Object.entries(IGNITION_LABELS).map(([v, l]) => (
-                <option key={v} value={v}>
-                  {l}
-                </option>
-              ))}
-            </Select>
-          )}
-        </Field>
-        <Field label="Fuel">
-          {(p) => (
-            <Select {...p} {...register('unit.fuel')}>
-              {Object.entries(FUEL_LABELS).map(([v, l]) => (
-                <option key={v} value={v}>
-                  {l}
-                </option>
-              ))}
-            </Select>
-          )}
-        </Field>
-        <Field label="Control supply">
-          {(p) => (
-            <Select {...p} {...register('unit.controlSupply')}>
-              {Object.entries(SUPPLY_LABELS).map(([v, l]) => (
-                <option key={v} value={v}>
-                  {l}
-                </option>
-              ))}
-            </Select>
-          )}
-        </Field>
-        <Field label="Draft">
-          {(p) => (
-            <Select {...p} {...register('unit.draft')}>
-              <option value="induced">Induced draft (inducer and pressure switch)</option>
-              <option value="natural">Natural draft</option>
-            </Select>
-          )}
-        </Field>
-      </fieldset>
+      <UnitProfileFields register={register} />
       <Field
         label="Notes for the apprentice"
         error={errors.notes?.message}
